@@ -1,0 +1,71 @@
+// What the validator hands back: plain data the editor, the API and the tests all read the
+// same way. A path is written the way a person would point at the value in the JSON, e.g.
+// presets[2].looks.chamber.layers[1].periodMs.
+
+export type Severity = "error" | "warning" | "info";
+
+export type Diagnostic = {
+  severity: Severity;
+  /** Stable kebab-case rule code; tools may match on it, so never rename one. */
+  code: string;
+  /** JSON path of the value the diagnostic is about ("" for the whole config). */
+  path: string;
+  message: string;
+  hint: string;
+};
+
+export type PathSegment = string | number;
+
+const PLAIN_KEY = /^[A-Za-z_$][A-Za-z0-9_$-]*$/;
+
+/** Formats path segments as `a.b[2].c`; keys that would read ambiguously are quoted. */
+export function formatPath(segments: readonly PathSegment[]): string {
+  let out = "";
+  for (const s of segments) {
+    if (typeof s === "number") out += `[${s}]`;
+    else if (PLAIN_KEY.test(s)) out += out === "" ? s : `.${s}`;
+    else out += `[${JSON.stringify(s)}]`;
+  }
+  return out;
+}
+
+/** Joins a base path with more segments without re-formatting the base. */
+export function joinPath(base: string, ...more: PathSegment[]): string {
+  const tail = formatPath(more);
+  if (base === "") return tail;
+  if (tail === "") return base;
+  return tail.startsWith("[") ? base + tail : `${base}.${tail}`;
+}
+
+const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, info: 2 };
+
+/** Errors first, then warnings, then notes; stable within a severity. */
+export function sortDiagnostics(list: Diagnostic[]): Diagnostic[] {
+  return list
+    .map((d, i) => [d, i] as const)
+    .sort((a, b) => SEVERITY_ORDER[a[0].severity] - SEVERITY_ORDER[b[0].severity] || a[1] - b[1])
+    .map(([d]) => d);
+}
+
+export function hasErrors(list: readonly Diagnostic[]): boolean {
+  return list.some((d) => d.severity === "error");
+}
+
+/** Collects diagnostics for the semantic rules; one per validation run. */
+export class DiagnosticSink {
+  readonly list: Diagnostic[] = [];
+  error(code: string, path: string, message: string, hint: string): void {
+    this.list.push({ severity: "error", code, path, message, hint });
+  }
+  warning(code: string, path: string, message: string, hint: string): void {
+    this.list.push({ severity: "warning", code, path, message, hint });
+  }
+  info(code: string, path: string, message: string, hint: string): void {
+    this.list.push({ severity: "info", code, path, message, hint });
+  }
+}
+
+/** `.key` or `["key"]`, to append a record key to an already formatted path. */
+export function keySegment(key: string): string {
+  return PLAIN_KEY.test(key) ? `.${key}` : `[${JSON.stringify(key)}]`;
+}

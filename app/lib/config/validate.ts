@@ -1,0 +1,48 @@
+// The validator: the schema first, then the semantic rules over the parsed config. Diagnostics
+// are data, never thrown. When the schema fails, only its diagnostics are returned, plus a note
+// that the other checks wait: rules written for a well-formed config would otherwise report
+// noise (a "missing" channel that is only misspelt, power for a look that did not parse).
+import { powerSummary, type PowerSummary } from "../power/estimate";
+import { DiagnosticSink, sortDiagnostics, type Diagnostic } from "./diagnostics";
+import { buildContext } from "./rules/context";
+import { completenessRules } from "./rules/completeness";
+import { powerRules } from "./rules/power";
+import { referenceRules } from "./rules/references";
+import { rigRules } from "./rules/rig";
+import { timingRules } from "./rules/timing";
+import { configSchema, type Config } from "./schema";
+import { structureDiagnostics } from "./structure";
+
+export type { Diagnostic } from "./diagnostics";
+export type { PowerSummary } from "../power/estimate";
+
+export type ValidationResult = { config: Config | null; diagnostics: Diagnostic[]; power: PowerSummary | null };
+
+export function validateConfig(input: unknown): ValidationResult {
+  const parsed = configSchema.safeParse(input);
+  if (!parsed.success) {
+    const diagnostics = structureDiagnostics(parsed.error.issues, input);
+    diagnostics.push({
+      severity: "info",
+      code: "semantic-rules-skipped",
+      path: "",
+      message: "References, pins, timings and power were not checked because the config's structure is wrong.",
+      hint: "Fix the errors above; the remaining checks run once the structure is right.",
+    });
+    return { config: null, diagnostics, power: null };
+  }
+  const config = parsed.data;
+  const power = powerSummary(config);
+  const sink = new DiagnosticSink();
+  const ctx = buildContext(config, power, sink);
+  referenceRules(ctx);
+  completenessRules(ctx);
+  rigRules(ctx);
+  timingRules(ctx);
+  powerRules(ctx);
+  return { config, diagnostics: sortDiagnostics(sink.list), power };
+}
+
+export function validate(input: unknown): Diagnostic[] {
+  return validateConfig(input).diagnostics;
+}
