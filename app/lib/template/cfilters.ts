@@ -1,0 +1,149 @@
+// Filters that place model values into C source: identifiers (C11 §6.4.1, §6.4.2), string
+// literals (§6.4.5), comments, numbers and colours. These are what make a model string safe
+// to print into a header; the checker flags free text printed without one of them.
+import { fail, needNum, needStr, needWidth, show, type FilterDef } from "./filters";
+import { STR, type Ty } from "./types";
+
+/** C11 §6.4.1 keywords. */
+export const C11_KEYWORDS = new Set([
+  "auto", "break", "case", "char", "const", "continue", "default", "do", "double", "else", "enum", "extern",
+  "float", "for", "goto", "if", "inline", "int", "long", "register", "restrict", "return", "short", "signed",
+  "sizeof", "static", "struct", "switch", "typedef", "union", "unsigned", "void", "volatile", "while",
+  "_Alignas", "_Alignof", "_Atomic", "_Bool", "_Complex", "_Generic", "_Imaginary", "_Noreturn",
+  "_Static_assert", "_Thread_local",
+]);
+
+/** An identifier per §6.4.2 (basic source characters only), never a keyword, never reserved (§7.1.3). */
+export function toCIdentifier(input: string): string {
+  let s = input.replace(/[^A-Za-z0-9_]+/g, "_").replace(/_+/g, "_");
+  if (s.length > 1) s = s.replace(/^_+|_+$/g, "") || "_";
+  if (s === "" || s === "_") s = "id";
+  if (/^[0-9]/.test(s)) s = "n" + s;
+  if (C11_KEYWORDS.has(s)) s += "_";
+  // Names that start with an underscore and a capital, or two underscores, belong to the
+  // implementation (§7.1.3); the trimming above already removed leading underscores.
+  return s.slice(0, 63);
+}
+
+/** A C string literal: printable ASCII kept, the rest escaped; '??' split so no trigraph forms. */
+export function toCString(input: string): string {
+  let out = '"';
+  const bytes = new TextEncoder().encode(input);
+  let prevQ = false;
+  for (const b of bytes) {
+    let piece: string;
+    if (b === 0x22) piece = '\\"';
+    else if (b === 0x5c) piece = "\\\\";
+    else if (b === 0x0a) piece = "\\n";
+    else if (b === 0x09) piece = "\\t";
+    else if (b === 0x0d) piece = "\\r";
+    else if (b === 0x3f) piece = prevQ ? "\\?" : "?";
+    else if (b >= 0x20 && b < 0x7f) piece = String.fromCharCode(b);
+    // Octal escapes take at most three digits, so the next character can never extend them.
+    else piece = "\\" + b.toString(8).padStart(3, "0");
+    prevQ = b === 0x3f && piece === "?";
+    out += piece;
+  }
+  return out + '"';
+}
+
+/** Text safe inside both /* *\/ and // comments. */
+export function toCComment(input: string): string {
+  let s = input.replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, " ");
+  s = s.replace(/\*\//g, "* /").replace(/\/\*/g, "/ *").replace(/\?\?/g, "? ?");
+  s = s.replace(/\s+$/, "");
+  // A backslash at the end of a line would splice the next line into a // comment.
+  if (s.endsWith("\\")) s += ".";
+  return s;
+}
+
+/** A C double constant that reads back to exactly the same number. */
+export function toCDouble(n: number): string {
+  const s = String(n);
+  return /[.eE]/.test(s) ? s : s + ".0";
+}
+
+const colorRe = /^#([0-9a-fA-F]{6})$/;
+function needColor(v: unknown): string {
+  const m = typeof v === "string" ? colorRe.exec(v) : null;
+  if (!m) fail(`expected a colour written #rrggbb, not ${show(v)}`);
+  return m![1];
+}
+
+const cStr = (t: Ty): Ty => ({ ...STR, maybe: "maybe" in t && t.maybe }) as Ty;
+
+export const C_FILTERS: [string, FilterDef][] = [
+  [
+    "cident",
+    {
+      min: 0,
+      max: 1,
+      input: "str",
+      out: cStr,
+      cSafe: true,
+      fn: (v, [scope = ""], ctx) => {
+        const s = needStr(v, "the input of 'cident'");
+        const sc = needStr(scope, "the scope of 'cident'");
+        let table = ctx.idents.get(sc);
+        if (!table) ctx.idents.set(sc, (table = new Map()));
+        const known = table.get(s);
+        if (known !== undefined) return known;
+        const base = toCIdentifier(s);
+        const taken = new Set(table.values());
+        let name = base;
+        for (let i = 2; taken.has(name); i++) name = `${base}_${i}`;
+        table.set(s, name);
+        return name;
+      },
+    },
+  ],
+  ["cstr", { min: 0, max: 0, input: "str", out: cStr, cSafe: true, fn: (v) => toCString(needStr(v, "the input of 'cstr'")) }],
+  ["ccomment", { min: 0, max: 0, input: "any", out: cStr, cSafe: true, fn: (v) => toCComment(typeof v === "string" ? v : String(needNum(v, "the input of 'ccomment'"))) }],
+  ["cdouble", { min: 0, max: 0, input: "num", out: () => STR, cSafe: true, fn: (v) => toCDouble(needNum(v, "the input of 'cdouble'")) }],
+  [
+    "hex",
+    {
+      min: 0,
+      max: 1,
+      input: "color",
+      out: () => STR,
+      cSafe: true,
+      fn: (v, [form = "keep"]) => {
+        const digits = needColor(v);
+        if (form === "upper") return "0x" + digits.toUpperCase();
+        if (form === "lower") return "0x" + digits.toLowerCase();
+        if (form === "keep") return "0x" + digits;
+        return fail(`the form of 'hex' is "keep", "upper" or "lower", not ${show(form)}`);
+      },
+    },
+  ],
+  [
+    "bytes",
+    {
+      min: 0,
+      max: 0,
+      input: "color",
+      out: () => ({ k: "list", of: STR }),
+      cSafe: true,
+      fn: (v) => {
+        const d = needColor(v).toUpperCase();
+        return [d.slice(0, 2), d.slice(2, 4), d.slice(4, 6)].map((x) => "0x" + x);
+      },
+    },
+  ],
+  [
+    "cint",
+    {
+      min: 0,
+      max: 1,
+      input: "num",
+      out: () => STR,
+      cSafe: true,
+      fn: (v, [width = 0], ctx) => {
+        const n = needNum(v, "the input of 'cint'");
+        if (!Number.isSafeInteger(n)) fail(`'cint' needs a whole number, not ${n}`);
+        return String(n).padStart(needWidth(width, "the width of 'cint'", ctx), " ");
+      },
+    },
+  ],
+];

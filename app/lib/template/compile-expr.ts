@@ -1,0 +1,262 @@
+// Stage 3a: expressions are type-checked against the schema-derived types and turned into
+// closures in one walk. No JavaScript source is generated; field reads go through fixed key
+// paths computed here, and keys that name Object.prototype members are always missing.
+import type { Expr } from "./ast";
+import { suggest } from "./errors";
+import { FilterError, show, type FilterDef, type InputKind } from "./filters";
+import { FILTERS } from "./filtertable";
+import { renderFail, report, type Ctx, type Env, type Ev } from "./scope";
+import { ANY, BOOL, describe, LOOP_FIELDS, NUM, STR, type Ty } from "./types";
+
+const hasOwn = Object.prototype.hasOwnProperty;
+const PROTO_KEYS = new Set(Object.getOwnPropertyNames(Object.prototype).concat(["__proto__", "prototype", "constructor"]));
+
+/** A plain-data read: objects only, own keys only for anything that could reach a prototype. */
+export function readKey(o: unknown, k: string): unknown {
+  if (o === null || typeof o !== "object" || Array.isArray(o)) return undefined;
+  if (PROTO_KEYS.has(k)) return hasOwn.call(o, k) ? (o as Record<string, unknown>)[k] : undefined;
+  return (o as Record<string, unknown>)[k];
+}
+
+export function truthy(v: unknown): boolean {
+  if (Array.isArray(v)) return v.length > 0;
+  return v !== null && v !== undefined && v !== false && v !== 0 && v !== "";
+}
+
+/** Span used for errors: inside an external partial, errors point at its `use` in the root. */
+export function span(env: Env, from: number, to: number): [number, number] {
+  return env.unit.site ? [env.unit.site.from, env.unit.site.to] : [from, to];
+}
+
+export interface Compiled {
+  ev: Ev;
+  ty: Ty;
+  /** True when the value went through a filter that makes it safe for C source. */
+  cSafe: boolean;
+}
+
+export function compileExpr(env: Env, e: Expr): Compiled {
+  switch (e.k) {
+    case "lit": {
+      const v = e.value;
+      const ty: Ty = v === null ? { k: "null" } : typeof v === "number" ? NUM : typeof v === "boolean" ? BOOL : STR;
+      return { ev: () => v, ty, cSafe: typeof v !== "string" };
+    }
+    case "var": {
+      const found = env.scope.lookup(e.name);
+      if (!found) {
+        const hint = suggest(e.name, env.scope.names());
+        report(env, `unknown name '${e.name}'${hint ? ` — did you mean '${hint}'?` : ""} (the model is under 'config', build details under 'meta')`, e.from, e.to);
+        return { ev: () => undefined, ty: ANY, cSafe: false };
+      }
+      const slot = found.slot;
+      return { ev: (c) => c.f[slot], ty: found.ty, cSafe: false };
+    }
+    case "get":
+      return compileGet(env, e);
+    case "index": {
+      const obj = compileExpr(env, e.obj);
+      const key = compileExpr(env, e.key);
+      let ty: Ty = ANY;
+      if (obj.ty.k === "list") ty = { ...obj.ty.of, maybe: true } as Ty;
+      else if (obj.ty.k === "record") ty = { ...obj.ty.of, maybe: true } as Ty;
+      else if (obj.ty.k !== "any" && obj.ty.k !== "obj") report(env, `${describe(obj.ty)} cannot be indexed with [ ]`, e.from, e.to);
+      const [from, to] = span(env, e.key.from, e.key.to);
+      const o = obj.ev;
+      const k = key.ev;
+      return {
+        ty,
+        cSafe: false,
+        ev: (c) => {
+          const target = o(c);
+          const kv = k(c);
+          if (Array.isArray(target)) return typeof kv === "number" && Number.isInteger(kv) && kv >= 0 && kv < target.length ? target[kv] : undefined;
+          if (typeof kv !== "string") throw renderFail(`an index must be text or a whole number, not ${show(kv)}`, from, to);
+          return target !== null && typeof target === "object" && hasOwn.call(target, kv) ? (target as Record<string, unknown>)[kv] : undefined;
+        },
+      };
+    }
+    case "unary": {
+      const arg = compileExpr(env, e.arg);
+      const a = arg.ev;
+      if (e.op === "not") return { ev: (c) => !truthy(a(c)), ty: BOOL, cSafe: true };
+      expectNum(env, arg.ty, "'-'", e.arg.from, e.arg.to);
+      const [from, to] = span(env, e.from, e.to);
+      return {
+        ty: NUM,
+        cSafe: true,
+        ev: (c) => {
+          const v = a(c);
+          if (typeof v !== "number") throw renderFail(`'-' needs a number, not ${show(v)}`, from, to);
+          return -v;
+        },
+      };
+    }
+    case "binary":
+      return compileBinary(env, e);
+    case "filter":
+      return compileFilter(env, e);
+  }
+}
+
+function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
+  // Collapse a chain a.b.c into one closure over a fixed key list.
+  const keys: string[] = [];
+  let base: Expr = e;
+  const gets: Extract<Expr, { k: "get" }>[] = [];
+  while (base.k === "get") {
+    gets.unshift(base);
+    base = base.obj;
+  }
+  const root = compileExpr(env, base);
+  let ty = root.ty;
+  for (const g of gets) {
+    keys.push(g.key);
+    ty = fieldType(env, ty, g.key, g.keyFrom, g.to);
+  }
+  const r = root.ev;
+  let ev: Ev;
+  if (keys.length === 1) {
+    const [k0] = keys;
+    ev = (c) => readKey(r(c), k0);
+  } else if (keys.length === 2) {
+    const [k0, k1] = keys;
+    ev = (c) => readKey(readKey(r(c), k0), k1);
+  } else {
+    ev = (c) => {
+      let v = r(c);
+      for (let i = 0; i < keys.length; i++) v = readKey(v, keys[i]);
+      return v;
+    };
+  }
+  return { ev, ty, cSafe: false };
+}
+
+function fieldType(env: Env, ty: Ty, key: string, from: number, to: number): Ty {
+  const maybe = "maybe" in ty && ty.maybe;
+  let out: Ty | undefined;
+  if (ty.k === "any") return ANY;
+  if (ty.k === "obj") {
+    out = ty.fields.get(key);
+    if (!out || PROTO_KEYS.has(key)) {
+      const hint = suggest(key, ty.fields.keys());
+      report(env, `unknown field '${key}' on ${ty.name}${hint ? ` — did you mean '${hint}'?` : ""}`, from, to);
+      return ANY;
+    }
+  } else if (ty.k === "loop") {
+    out = LOOP_FIELDS.get(key);
+    if (!out || PROTO_KEYS.has(key)) {
+      const hint = suggest(key, LOOP_FIELDS.keys());
+      report(env, `unknown field '${key}' on loop information${hint ? ` — did you mean '${hint}'?` : ""} (index, number, first, last, length)`, from, to);
+      return ANY;
+    }
+  } else if (ty.k === "record") {
+    out = ty.of;
+    return { ...out, maybe: true } as Ty;
+  } else {
+    report(env, `${describe(ty)} has no field '${key}'${ty.k === "list" ? "; use '|> count' for its length" : ""}`, from, to);
+    return ANY;
+  }
+  return maybe ? ({ ...out, maybe: true } as Ty) : out;
+}
+
+function expectNum(env: Env, ty: Ty, what: string, from: number, to: number) {
+  if (ty.k !== "num" && ty.k !== "any") report(env, `${what} needs a number, not ${describe(ty)}`, from, to);
+}
+
+function compileBinary(env: Env, e: Extract<Expr, { k: "binary" }>): Compiled {
+  const L = compileExpr(env, e.left);
+  const R = compileExpr(env, e.right);
+  const l = L.ev;
+  const r = R.ev;
+  const op = e.op;
+  const [from, to] = span(env, e.from, e.to);
+  if (op === "and") return { ty: BOOL, cSafe: true, ev: (c) => truthy(l(c)) && truthy(r(c)) };
+  if (op === "or") return { ty: BOOL, cSafe: true, ev: (c) => truthy(l(c)) || truthy(r(c)) };
+  if (op === "==") return { ty: BOOL, cSafe: true, ev: (c) => same(l(c), r(c)) };
+  if (op === "!=") return { ty: BOOL, cSafe: true, ev: (c) => !same(l(c), r(c)) };
+  if (op === "<" || op === "<=" || op === ">" || op === ">=") {
+    if (L.ty.k !== "any" && R.ty.k !== "any" && (L.ty.k !== R.ty.k || (L.ty.k !== "num" && L.ty.k !== "str")))
+      report(env, `'${op}' compares two numbers or two texts, not ${describe(L.ty)} and ${describe(R.ty)}`, e.from, e.to);
+    const cmp = (c: Ctx): number => {
+      const a = l(c);
+      const b = r(c);
+      if ((typeof a === "number" && typeof b === "number") || (typeof a === "string" && typeof b === "string")) return a < b ? -1 : a > b ? 1 : 0;
+      throw renderFail(`'${op}' compares two numbers or two texts, not ${show(a)} and ${show(b)}`, from, to);
+    };
+    const test = op === "<" ? (n: number) => n < 0 : op === "<=" ? (n: number) => n <= 0 : op === ">" ? (n: number) => n > 0 : (n: number) => n >= 0;
+    return { ty: BOOL, cSafe: true, ev: (c) => test(cmp(c)) };
+  }
+  expectNum(env, L.ty, `'${op}'`, e.left.from, e.left.to);
+  expectNum(env, R.ty, `'${op}'`, e.right.from, e.right.to);
+  const calc =
+    op === "+" ? (a: number, b: number) => a + b : op === "-" ? (a: number, b: number) => a - b : op === "*" ? (a: number, b: number) => a * b : op === "/" ? (a: number, b: number) => a / b : (a: number, b: number) => a % b;
+  return {
+    ty: NUM,
+    cSafe: true,
+    ev: (c) => {
+      const a = l(c);
+      const b = r(c);
+      if (typeof a !== "number" || typeof b !== "number") throw renderFail(`'${op}' needs two numbers, not ${show(a)} and ${show(b)}`, from, to);
+      const v = calc(a, b);
+      if (!Number.isFinite(v)) throw renderFail(`'${op}' gave ${v} (division by zero?)`, from, to);
+      return v;
+    },
+  };
+}
+
+function same(a: unknown, b: unknown): boolean {
+  return a === b || ((a === null || a === undefined) && (b === null || b === undefined));
+}
+
+function accepts(kind: InputKind, ty: Ty): boolean {
+  if (kind === "any" || ty.k === "any") return true;
+  if (kind === "str" || kind === "color") return ty.k === "str";
+  if (kind === "num") return ty.k === "num";
+  if (kind === "list" || kind === "strlist") return ty.k === "list";
+  return true;
+}
+
+const KIND_WORDS: Record<InputKind, string> = { any: "any value", str: "text", num: "a number", list: "a list", strlist: "a list of text", color: "a #rrggbb colour" };
+
+function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
+  const input = compileExpr(env, e.input);
+  const args = e.args.map((a) => compileExpr(env, a));
+  const def: FilterDef | undefined = FILTERS.get(e.name);
+  if (!def) {
+    const hint = suggest(e.name, FILTERS.keys());
+    report(env, `unknown filter '${e.name}'${hint ? ` — did you mean '${hint}'?` : ""}`, e.nameFrom, e.nameTo);
+    return { ev: () => undefined, ty: ANY, cSafe: false };
+  }
+  if (args.length < def.min || args.length > def.max) {
+    const want = def.min === def.max ? `${def.min}` : `${def.min} to ${def.max}`;
+    report(env, `filter '${e.name}' takes ${want} argument${def.max === 1 && def.min === 1 ? "" : "s"}, got ${args.length}`, e.nameFrom, e.to);
+  }
+  if (!accepts(def.input, input.ty)) report(env, `filter '${e.name}' needs ${KIND_WORDS[def.input]}, but gets ${describe(input.ty)}`, e.nameFrom, e.nameTo);
+  const fn = def.fn;
+  const inp = input.ev;
+  const [from, to] = span(env, e.nameFrom, e.nameTo);
+  const argEvs = args.map((a) => a.ev);
+  const wrap = (err: unknown) => (err instanceof FilterError ? renderFail(`filter '${e.name}': ${err.message}`, from, to) : err);
+  let ev: Ev;
+  if (argEvs.length === 0) {
+    const none: unknown[] = [];
+    ev = (c) => {
+      try {
+        return fn(inp(c), none, c);
+      } catch (err) {
+        throw wrap(err);
+      }
+    };
+  } else {
+    ev = (c) => {
+      const vs = argEvs.map((a) => a(c));
+      try {
+        return fn(inp(c), vs, c);
+      } catch (err) {
+        throw wrap(err);
+      }
+    };
+  }
+  return { ev, ty: def.out(input.ty), cSafe: !!def.cSafe || (input.cSafe && def.out(input.ty).k !== "str") };
+}

@@ -1,0 +1,93 @@
+// Compile-time state shared by the expression and node compilers: lexical scopes that map
+// names to frame slots, the render context the closures run against, and error reporting.
+import type { TemplateAst } from "./ast";
+import { TemplateFailure, type Severity } from "./errors";
+import type { FilterCtx } from "./filters";
+import type { Limits } from "./limits";
+import type { Ty } from "./types";
+
+/** Render-time state. Closures take this one argument so calls stay cheap. */
+export interface Ctx extends FilterCtx {
+  f: unknown[];
+  out: string;
+  steps: number;
+  maxSteps: number;
+  maxOutput: number;
+  deadline: number;
+}
+
+export type Ev = (c: Ctx) => unknown;
+export type Run = (c: Ctx) => void;
+
+export class Scope {
+  readonly vars = new Map<string, { slot: number; ty: Ty }>();
+  constructor(readonly parent: Scope | null) {}
+  lookup(name: string): { slot: number; ty: Ty } | undefined {
+    for (let s: Scope | null = this; s; s = s.parent) {
+      const v = s.vars.get(name);
+      if (v) return v;
+    }
+    return undefined;
+  }
+  names(): string[] {
+    const out: string[] = [];
+    for (let s: Scope | null = this; s; s = s.parent) out.push(...s.vars.keys());
+    return out;
+  }
+}
+
+export interface Unit {
+  name: string | null;
+  source: string;
+  ast: TemplateAst;
+  /** Where this unit was used from, in the root template, when it is an external partial. */
+  site: { from: number; to: number } | null;
+}
+
+export interface Diag {
+  severity: Severity;
+  message: string;
+  from: number;
+  to: number;
+}
+
+export interface Env {
+  unit: Unit;
+  scope: Scope;
+  slots: { n: number };
+  limits: Limits;
+  target: "text" | "c";
+  diags: Diag[];
+  /** Piece and template names being expanded, outermost first, for cycle and depth checks. */
+  stack: string[];
+  expansions: { n: number };
+  resolve?: (name: string) => string | undefined;
+}
+
+export function report(env: Env, message: string, from: number, to: number, severity: Severity = "error") {
+  if (env.unit.site) {
+    const pos = lineCol(env.unit.source, from);
+    env.diags.push({ severity, message: `in template "${env.unit.name}" at ${pos}: ${message}`, from: env.unit.site.from, to: env.unit.site.to });
+  } else env.diags.push({ severity, message, from, to });
+}
+
+function lineCol(source: string, offset: number): string {
+  const before = source.slice(0, offset);
+  const line = before.split("\n").length;
+  return `${line}:${offset - before.lastIndexOf("\n")}`;
+}
+
+export function renderFail(message: string, from: number, to: number): TemplateFailure {
+  return new TemplateFailure("render", message, from, to);
+}
+
+export function bind(env: Env, scope: Scope, name: string, ty: Ty): number {
+  const existing = scope.vars.get(name);
+  if (existing) {
+    existing.ty = existing.ty.k === ty.k ? ty : { k: "any" };
+    return existing.slot;
+  }
+  const slot = env.slots.n++;
+  scope.vars.set(name, { slot, ty });
+  return slot;
+}

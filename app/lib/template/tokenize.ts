@@ -1,0 +1,202 @@
+// Stage 1: a hand-written single-pass lexer. Text between tags is kept as it is; inside a tag
+// the expression is split into tokens that keep their source offsets. Delimiters start with '@',
+// a character that never appears in C outside strings and comments:
+//   @( expr )@   output          @[ stmt ]@   statement          @# … #@   comment
+// A '~' just inside a delimiter trims the whitespace next to it.
+import { TemplateFailure } from "./errors";
+
+export type TokKind = "ident" | "num" | "str" | "op";
+export interface Tok {
+  kind: TokKind;
+  /** Identifier or operator text, the decoded string, or the number's source text. */
+  value: string;
+  from: number;
+  to: number;
+}
+
+export type Piece =
+  | { kind: "text"; value: string; from: number; to: number; raw: boolean }
+  | { kind: "out" | "stmt"; toks: Tok[]; from: number; to: number; trimBefore: boolean; trimAfter: boolean }
+  | { kind: "comment"; from: number; to: number; trimBefore: boolean; trimAfter: boolean };
+
+const OPS2 = new Set(["==", "!=", "<=", ">=", "|>"]);
+const OPS1 = new Set(["(", ")", "[", "]", ".", ",", "+", "-", "*", "/", "%", "<", ">", "="]);
+
+function isIdentStart(c: number): boolean {
+  return (c >= 97 && c <= 122) || (c >= 65 && c <= 90) || c === 95;
+}
+function isIdentPart(c: number): boolean {
+  return isIdentStart(c) || (c >= 48 && c <= 57);
+}
+function isDigit(c: number): boolean {
+  return c >= 48 && c <= 57;
+}
+
+export function tokenize(src: string): Piece[] {
+  if (typeof src !== "string") throw new TemplateFailure("tokenize", "a template must be a string", 0, 0);
+  const pieces: Piece[] = [];
+  let i = 0;
+  let textStart = 0;
+  const n = src.length;
+  const flushText = (end: number) => {
+    if (end > textStart) pieces.push({ kind: "text", value: src.slice(textStart, end), from: textStart, to: end, raw: false });
+  };
+  while (i < n) {
+    const at = src.indexOf("@", i);
+    if (at === -1 || at + 1 >= n) break;
+    const next = src.charCodeAt(at + 1);
+    if (next !== 40 /* ( */ && next !== 91 /* [ */ && next !== 35 /* # */) {
+      i = at + 1;
+      continue;
+    }
+    flushText(at);
+    if (next === 35) {
+      const end = src.indexOf("#@", at + 2);
+      if (end === -1) throw new TemplateFailure("tokenize", "this comment '@#' is never closed with '#@'", at, at + 2);
+      const trimBefore = src.charCodeAt(at + 2) === 126;
+      const trimAfter = end > at + 2 && src.charCodeAt(end - 1) === 126;
+      pieces.push({ kind: "comment", from: at, to: end + 2, trimBefore, trimAfter });
+      i = textStart = end + 2;
+      continue;
+    }
+    const piece = lexTag(src, at, next === 40 ? "out" : "stmt");
+    pieces.push(piece);
+    i = textStart = piece.to;
+    if (piece.kind === "stmt" && piece.toks.length === 1 && piece.toks[0].value === "verbatim" && piece.toks[0].kind === "ident") {
+      // Everything up to the closing tag is text, even things that look like tags.
+      const close = /@\[~?[ \t\r\n]*\/verbatim[ \t\r\n]*~?\]@/g;
+      close.lastIndex = i;
+      const m = close.exec(src);
+      if (!m) throw new TemplateFailure("tokenize", "this 'verbatim' block is never closed with '@[ /verbatim ]@'", piece.from, piece.to);
+      if (m.index > i) pieces.push({ kind: "text", value: src.slice(i, m.index), from: i, to: m.index, raw: true });
+      pieces.push(lexTag(src, m.index, "stmt"));
+      i = textStart = m.index + m[0].length;
+    }
+  }
+  flushText(n);
+  return pieces;
+}
+
+function lexTag(src: string, at: number, kind: "out" | "stmt"): Piece {
+  const closer = kind === "out" ? ")@" : "]@";
+  const closeCh = kind === "out" ? 41 : 93;
+  const toks: Tok[] = [];
+  const n = src.length;
+  let i = at + 2;
+  let trimBefore = false;
+  if (src.charCodeAt(i) === 126) {
+    trimBefore = true;
+    i++;
+  }
+  for (;;) {
+    if (i >= n) throw new TemplateFailure("tokenize", `this tag '${src.slice(at, at + 2)}' is never closed with '${closer}'`, at, at + 2);
+    const c = src.charCodeAt(i);
+    if (c === 32 || c === 9 || c === 10 || c === 13) {
+      i++;
+      continue;
+    }
+    if (c === 126 && src.charCodeAt(i + 1) === closeCh && src.charCodeAt(i + 2) === 64) {
+      return { kind, toks, from: at, to: i + 3, trimBefore, trimAfter: true };
+    }
+    if (c === closeCh && src.charCodeAt(i + 1) === 64) {
+      return { kind, toks, from: at, to: i + 2, trimBefore, trimAfter: false };
+    }
+    if (c === 64 && (src.charCodeAt(i + 1) === 40 || src.charCodeAt(i + 1) === 91)) {
+      throw new TemplateFailure("tokenize", `a new tag starts before this tag '${src.slice(at, at + 2)}' is closed with '${closer}'`, at, at + 2);
+    }
+    const start = i;
+    if (c === 47 && kind === "stmt" && toks.length === 0 && isIdentStart(src.charCodeAt(i + 1))) {
+      // Closing keywords ("/over") are one word.
+      i++;
+      while (i < n && isIdentPart(src.charCodeAt(i))) i++;
+      toks.push({ kind: "ident", value: src.slice(start, i), from: start, to: i });
+    } else if (isIdentStart(c)) {
+      while (i < n && isIdentPart(src.charCodeAt(i))) i++;
+      toks.push({ kind: "ident", value: src.slice(start, i), from: start, to: i });
+    } else if (isDigit(c)) {
+      while (i < n && isDigit(src.charCodeAt(i))) i++;
+      if (src.charCodeAt(i) === 46 && isDigit(src.charCodeAt(i + 1))) {
+        i++;
+        while (i < n && isDigit(src.charCodeAt(i))) i++;
+      }
+      if (isIdentStart(src.charCodeAt(i))) throw new TemplateFailure("tokenize", "a number runs into a name; put a space between them", start, i + 1);
+      toks.push({ kind: "num", value: src.slice(start, i), from: start, to: i });
+    } else if (c === 34 || c === 39) {
+      i = lexString(src, i, toks);
+    } else {
+      const two = src.slice(i, i + 2);
+      if (OPS2.has(two)) {
+        toks.push({ kind: "op", value: two, from: i, to: i + 2 });
+        i += 2;
+      } else if (OPS1.has(src[i])) {
+        toks.push({ kind: "op", value: src[i], from: i, to: i + 1 });
+        i++;
+      } else {
+        const shown = c < 32 || c > 126 ? `\\u{${(src.codePointAt(i) ?? c).toString(16)}}` : src[i];
+        throw new TemplateFailure("tokenize", `unexpected character '${shown}' inside a tag`, i, i + 1);
+      }
+    }
+  }
+}
+
+const ESCAPES: Record<string, string> = { n: "\n", t: "\t", r: "\r", "\\": "\\", '"': '"', "'": "'", "0": "\0" };
+
+function lexString(src: string, start: number, toks: Tok[]): number {
+  const quote = src[start];
+  let i = start + 1;
+  let value = "";
+  for (;;) {
+    if (i >= src.length || src[i] === "\n") throw new TemplateFailure("tokenize", `this string is never closed with ${quote}`, start, start + 1);
+    const ch = src[i];
+    if (ch === quote) break;
+    if (ch === "\\") {
+      const e = ESCAPES[src[i + 1]];
+      if (e === undefined) throw new TemplateFailure("tokenize", `unknown escape '\\${src[i + 1] ?? ""}' in a string (use \\n \\t \\r \\\\ \\" \\' \\0)`, i, i + 2);
+      value += e;
+      i += 2;
+      continue;
+    }
+    value += ch;
+    i++;
+  }
+  toks.push({ kind: "str", value, from: start, to: i + 1 });
+  return i + 1;
+}
+
+/**
+ * Whitespace control. A line holding only statement tags and comments disappears entirely
+ * (indent and newline), so block tags do not leave blank lines in generated C; then '~' trims.
+ */
+export function applyWhitespace(pieces: Piece[]): Piece[] {
+  const isBlockTag = (p: Piece) => p.kind === "stmt" || p.kind === "comment";
+  // Decide on the original text, so that one removed line does not hide the next.
+  const orig = pieces.map((p) => (p.kind === "text" ? p.value : null));
+  const isBlank = (k: number) => orig[k] !== null && !(pieces[k] as { raw: boolean }).raw && /^[ \t]*$/.test(orig[k]!);
+  for (let i = 0; i < pieces.length; i++) {
+    if (!isBlockTag(pieces[i])) continue;
+    const before = i === 0 ? "" : orig[i - 1];
+    if (before === null || !(/\n[ \t]*$/.test(before) || (i <= 1 && /^[ \t]*$/.test(before)))) continue;
+    let j = i;
+    while (j + 1 < pieces.length && (isBlockTag(pieces[j + 1]) || (isBlank(j + 1) && j + 2 < pieces.length && isBlockTag(pieces[j + 2])))) j++;
+    const after = j + 1 < pieces.length ? orig[j + 1] : "";
+    if (after === null || !/^[ \t]*(\r?\n|$)/.test(after)) {
+      i = j;
+      continue;
+    }
+    const prev = pieces[i - 1];
+    const next = pieces[j + 1];
+    if (prev && prev.kind === "text") prev.value = prev.value.replace(/[ \t]*$/, "");
+    for (let k = i + 1; k < j; k++) if (pieces[k].kind === "text") (pieces[k] as { value: string }).value = "";
+    if (next && next.kind === "text") next.value = next.value.replace(/^[ \t]*(\r?\n)?/, "");
+    i = j;
+  }
+  for (let i = 0; i < pieces.length; i++) {
+    const p = pieces[i];
+    if (p.kind === "text") continue;
+    const prev = pieces[i - 1];
+    const next = pieces[i + 1];
+    if (p.trimBefore && prev?.kind === "text" && !prev.raw) prev.value = prev.value.replace(/\s+$/, "");
+    if (p.trimAfter && next?.kind === "text" && !next.raw) next.value = next.value.replace(/^\s+/, "");
+  }
+  return pieces;
+}
