@@ -1,0 +1,92 @@
+// Row types for every table, in one interface that Kysely checks queries against.
+import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+import type { Config } from "~/lib/config/schema";
+
+type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+
+export const ROLES = ["owner", "builder", "reviewer", "client"] as const;
+export type Role = (typeof ROLES)[number];
+export const BUILD_STATUSES = ["intake", "configuring", "in-review", "approved", "released"] as const;
+export type BuildStatus = (typeof BUILD_STATUSES)[number];
+
+export interface WorkshopsTable {
+  id: Generated<string>;
+  name: string;
+  slug: string;
+  created_at: Timestamp;
+}
+
+export interface UsersTable {
+  id: Generated<string>;
+  github_login: string | null;
+  email: string | null;
+  display_name: string;
+  created_at: Timestamp;
+}
+
+export interface MembershipsTable {
+  workshop_id: string;
+  user_id: string;
+  role: Role;
+  created_at: Timestamp;
+}
+
+export interface InvitationsTable {
+  id: Generated<string>;
+  workshop_id: string;
+  github_login: string | null;
+  email: string | null;
+  role: Role;
+  invited_by: string | null;
+  created_at: Timestamp;
+  accepted_at: Date | null;
+}
+
+export interface BuildsTable {
+  id: Generated<string>;
+  workshop_id: string;
+  name: string;
+  client_name: Generated<string>;
+  client_user_id: string | null;
+  hilt_notes: Generated<string>;
+  status: BuildStatus;
+  config: ColumnType<Config, string, string>;
+  config_version: Generated<number>;
+  archived_at: Date | null;
+  created_at: Timestamp;
+  updated_at: Timestamp;
+}
+
+export interface SessionsTable {
+  id: string;
+  data: ColumnType<Record<string, unknown>, string, string>;
+  expires_at: Date;
+}
+
+export interface ApiTokensTable {
+  id: Generated<string>;
+  user_id: string;
+  name: string;
+  token_hash: string;
+  prefix: string;
+  created_at: Timestamp;
+  last_used_at: Date | null;
+  revoked_at: Date | null;
+}
+
+export interface Database {
+  workshops: WorkshopsTable;
+  users: UsersTable;
+  memberships: MembershipsTable;
+  invitations: InvitationsTable;
+  builds: BuildsTable;
+  sessions: SessionsTable;
+  api_tokens: ApiTokensTable;
+}
+
+export type UserRow = Selectable<UsersTable>;
+export type BuildRow = Selectable<BuildsTable>;
+export type NewBuild = Insertable<BuildsTable>;
+export type BuildUpdate = Updateable<BuildsTable>;
+export type WorkshopRow = Selectable<WorkshopsTable>;
+export type InvitationRow = Selectable<InvitationsTable>;

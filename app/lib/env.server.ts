@@ -1,0 +1,38 @@
+// Start-up configuration, validated with zod: a wrong or missing value stops the server with
+// the name of the field, instead of failing later in a request.
+import { z } from "zod";
+
+const schema = z
+  .object({
+    NODE_ENV: z.enum(["development", "production", "test"]).default("production"),
+    DATABASE_URL: z.string().url(),
+    SESSION_SECRET: z.string().min(16, "SESSION_SECRET must be at least 16 characters"),
+    APP_URL: z.string().url(),
+    /** Which GitHub sign-in to use: the local fake on loopback, or github.com. */
+    AUTH_PROVIDER: z.enum(["fake-github", "github"]),
+    FAKE_GITHUB_URL: z.string().url().optional(),
+    GITHUB_CLIENT_ID: z.string().min(1).optional(),
+    GITHUB_CLIENT_SECRET: z.string().min(1).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.AUTH_PROVIDER === "fake-github" && !v.FAKE_GITHUB_URL)
+      ctx.addIssue({ code: "custom", path: ["FAKE_GITHUB_URL"], message: "required when AUTH_PROVIDER=fake-github" });
+    if (v.AUTH_PROVIDER === "github" && (!v.GITHUB_CLIENT_ID || !v.GITHUB_CLIENT_SECRET))
+      ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_ID"], message: "GITHUB_CLIENT_ID and GITHUB_CLIENT_SECRET are required when AUTH_PROVIDER=github" });
+  });
+
+export type Env = z.infer<typeof schema>;
+let cached: Env | undefined;
+
+export function env(): Env {
+  if (cached) return cached;
+  const parsed = schema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".") || "(env)"}: ${i.message}`);
+    throw new Error(`Hiltbench cannot start; fix these settings:\n${lines.join("\n")}`);
+  }
+  cached = parsed.data;
+  return cached;
+}
+
+export const isProduction = () => env().NODE_ENV === "production" && env().APP_URL.startsWith("https:");

@@ -1,0 +1,29 @@
+import { type RouteConfig, index, layout, prefix, route } from "@react-router/dev/routes";
+
+export default [
+  index("routes/home.tsx"),
+  route("login", "routes/login.tsx"),
+  route("auth/github", "routes/auth.github.ts"),
+  route("auth/github/callback", "routes/auth.github.callback.ts"),
+  route("logout", "routes/logout.ts"),
+  route("healthz", "routes/healthz.ts"),
+
+  layout("routes/app-layout.tsx", [
+    route("builds", "routes/builds._index.tsx"),
+    route("builds/new", "routes/builds.new.tsx"),
+    route("builds/:buildId", "routes/builds.$buildId.tsx", [
+      index("routes/builds.$buildId._index.tsx"),
+      route("rig", "routes/builds.$buildId.rig.tsx"),
+    ]),
+    route("workshop", "routes/workshop.tsx"),
+    route("account", "routes/account.tsx"),
+  ]),
+
+  ...prefix("api", [
+    route("me", "routes/api.me.ts"),
+    route("builds", "routes/api.builds.ts"),
+    route("builds/:buildId", "routes/api.builds.$buildId.ts"),
+  ]),
+
+  route("*", "routes/not-found.tsx"),
+] satisfies RouteConfig;

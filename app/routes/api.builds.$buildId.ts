@@ -1,0 +1,22 @@
+import { requireViewer } from "~/lib/auth.server";
+import { loadBuildFor } from "~/lib/build-access.server";
+import { apiAnswer, json } from "~/lib/http.server";
+import type { Route } from "./+types/api.builds.$buildId";
+
+export function loader({ request, params }: Route.LoaderArgs) {
+  return apiAnswer(async () => {
+    const v = await requireViewer(request, "view:builds");
+    const b = await loadBuildFor(v, params.buildId);
+    return json({
+      id: b.id,
+      name: b.name,
+      client: b.client_name,
+      status: b.status,
+      hiltNotes: b.hilt_notes,
+      archived: b.archived_at !== null,
+      configVersion: b.config_version,
+      updatedAt: b.updated_at,
+      rig: b.config.rig,
+    });
+  });
+}

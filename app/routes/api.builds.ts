@@ -1,0 +1,21 @@
+import { requireViewer } from "~/lib/auth.server";
+import { scopeFor } from "~/lib/build-access.server";
+import { parseBuildQuery } from "~/lib/build-forms";
+import { db } from "~/lib/db.server";
+import { apiAnswer, json } from "~/lib/http.server";
+import { listBuilds } from "~/lib/repo/builds.server";
+import type { Route } from "./+types/api.builds";
+
+export function loader({ request }: Route.LoaderArgs) {
+  return apiAnswer(async () => {
+    const v = await requireViewer(request, "view:builds");
+    const query = parseBuildQuery(new URL(request.url));
+    const { rows, total } = await listBuilds(db(), scopeFor(v), query);
+    return json({
+      total,
+      page: query.page,
+      perPage: query.perPage,
+      builds: rows.map((r) => ({ id: r.id, name: r.name, client: r.client_name, status: r.status, updatedAt: r.updated_at, createdAt: r.created_at, archived: r.archived_at !== null })),
+    });
+  });
+}

@@ -1,0 +1,52 @@
+import { Form, NavLink, Outlet } from "react-router";
+import { requireViewer } from "~/lib/auth.server";
+import { can } from "~/lib/permissions";
+import type { ClientViewer } from "~/lib/viewer";
+import type { Route } from "./+types/app-layout";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const v = await requireViewer(request);
+  const viewer: ClientViewer = { name: v.user.displayName, role: v.role, workshop: v.workshop.name, login: v.user.githubLogin, email: v.user.email };
+  return { viewer };
+}
+
+const link = ({ isActive }: { isActive: boolean }) =>
+  `rounded px-2 py-1 no-underline ${isActive ? "bg-soot-700 text-iron-100" : "text-iron-300 hover:text-iron-100"}`;
+
+export default function AppLayout({ loaderData }: Route.ComponentProps) {
+  const { viewer } = loaderData;
+  return (
+    <div className="min-h-screen">
+      <header className="border-b border-soot-700 bg-soot-900">
+        <nav className="mx-auto flex max-w-7xl items-center gap-4 px-4 py-2.5" aria-label="Main">
+          <NavLink to="/builds" className="font-mono font-bold text-ember-400 no-underline">
+            hiltbench
+          </NavLink>
+          <span className="text-sm text-iron-400">{viewer.workshop}</span>
+          <NavLink to="/builds" className={link} end={false}>
+            Builds
+          </NavLink>
+          {can(viewer.role, "view:members") ? (
+            <NavLink to="/workshop" className={link}>
+              Workshop
+            </NavLink>
+          ) : null}
+          <NavLink to="/account" className={link}>
+            Account
+          </NavLink>
+          <span className="ml-auto text-sm text-iron-300" data-testid="who">
+            {viewer.name} · <span className="text-brass-300">{viewer.role}</span>
+          </span>
+          <Form method="post" action="/logout">
+            <button className="btn" type="submit">
+              Sign out
+            </button>
+          </Form>
+        </nav>
+      </header>
+      <main className="mx-auto max-w-7xl px-4 py-6">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

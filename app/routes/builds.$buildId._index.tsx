@@ -1,0 +1,118 @@
+import { data, Form, useActionData, useNavigation } from "react-router";
+import { BuildMetaFields } from "~/components/BuildMetaFields";
+import { requireViewer } from "~/lib/auth.server";
+import { loadBuildFor } from "~/lib/build-access.server";
+import { buildMetaSchema, fieldErrors, STATUS_LABELS } from "~/lib/build-forms";
+import { db } from "~/lib/db.server";
+import { fail } from "~/lib/http.server";
+import { can } from "~/lib/permissions";
+import { listClients, setArchived, updateBuildMeta } from "~/lib/repo/builds.server";
+import type { Route } from "./+types/builds.$buildId._index";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const v = await requireViewer(request, "view:builds");
+  const b = await loadBuildFor(v, params.buildId);
+  const canEdit = can(v.role, "edit:build");
+  const cfg = b.config;
+  return {
+    build: {
+      id: b.id,
+      name: b.name,
+      client_name: b.client_name,
+      client_user_id: b.client_user_id,
+      client_email: b.client_email,
+      hilt_notes: b.hilt_notes,
+      status: b.status,
+      archived: b.archived_at !== null,
+      updated_at: b.updated_at.toISOString(),
+    },
+    summary: {
+      channels: cfg.rig.channels.map((c) => `${c.name} (${c.pixels} px${c.parallelStrips > 1 ? ` × ${c.parallelStrips}` : ""})`),
+      presets: cfg.presets.map((p) => p.name),
+      fonts: cfg.fonts.map((f) => ({ name: f.name, status: f.status })),
+    },
+    canEdit,
+    canArchive: can(v.role, "archive:build"),
+    clients: canEdit ? await listClients(db(), v.workshop.id) : [],
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const form = await request.formData();
+  const intent = form.get("intent");
+  if (intent === "archive" || intent === "unarchive") {
+    const v = await requireViewer(request, "archive:build");
+    await loadBuildFor(v, params.buildId);
+    await setArchived(db(), v.workshop.id, params.buildId, intent === "archive");
+    return { ok: true as const, errors: undefined };
+  }
+  if (intent !== "save") fail(400, "Unknown action.");
+  const v = await requireViewer(request, "edit:build");
+  await loadBuildFor(v, params.buildId);
+  const parsed = buildMetaSchema.safeParse(Object.fromEntries(form));
+  if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error) }, { status: 400 });
+  if (parsed.data.clientUserId && !(await listClients(db(), v.workshop.id)).some((c) => c.id === parsed.data.clientUserId))
+    return data({ ok: false as const, errors: { clientUserId: "Choose a client account of this workshop." } }, { status: 400 });
+  await updateBuildMeta(db(), v.workshop.id, params.buildId, parsed.data);
+  return { ok: true as const, errors: undefined };
+}
+
+export default function BuildOverview({ loaderData }: Route.ComponentProps) {
+  const { build, summary, canEdit, canArchive, clients } = loaderData;
+  const result = useActionData<typeof action>();
+  const nav = useNavigation();
+  return (
+    <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
+      <section className="card">
+        <h2>Details</h2>
+        {canEdit ? (
+          <Form method="post" className="mt-4" key={build.updated_at}>
+            <BuildMetaFields clients={clients} errors={result?.errors} values={build} />
+            <div className="mt-4 flex items-center gap-3">
+              <button type="submit" name="intent" value="save" className="btn btn-primary" disabled={nav.state !== "idle"}>
+                Save details
+              </button>
+              {result?.ok ? <span className="text-sm text-signal-ok" role="status">Saved.</span> : null}
+            </div>
+          </Form>
+        ) : (
+          <dl className="mt-4 grid grid-cols-[10rem_1fr] gap-2 text-sm">
+            <dt className="text-iron-400">Client</dt>
+            <dd>{build.client_name || "—"}</dd>
+            <dt className="text-iron-400">Status</dt>
+            <dd>{STATUS_LABELS[build.status]}</dd>
+            <dt className="text-iron-400">Hilt notes</dt>
+            <dd className="whitespace-pre-wrap">{build.hilt_notes || "—"}</dd>
+          </dl>
+        )}
+      </section>
+      <aside className="space-y-4">
+        <section className="card text-sm">
+          <h3>Channels</h3>
+          <ul className="mt-2 list-inside list-disc text-iron-300">{summary.channels.map((c) => <li key={c}>{c}</li>)}</ul>
+          <h3 className="mt-4">Presets</h3>
+          <ol className="mt-2 list-inside list-decimal text-iron-300">{summary.presets.map((p) => <li key={p}>{p}</li>)}</ol>
+          <h3 className="mt-4">Fonts</h3>
+          <ul className="mt-2 text-iron-300">
+            {summary.fonts.map((f) => (
+              <li key={f.name}>
+                {f.name} <span className={f.status === "received" ? "text-signal-ok" : "text-signal-warning"}>({f.status})</span>
+              </li>
+            ))}
+          </ul>
+        </section>
+        {canArchive ? (
+          <Form method="post" className="card">
+            <h3>{build.archived ? "Archived" : "Archive"}</h3>
+            <p className="mt-1 text-sm text-iron-400">
+              {build.archived ? "This build is hidden from the main list." : "Hide a finished or abandoned build from the main list. Nothing is deleted."}
+            </p>
+            <button className="btn mt-3" type="submit" name="intent" value={build.archived ? "unarchive" : "archive"}>
+              {build.archived ? "Restore to the list" : "Archive build"}
+            </button>
+          </Form>
+        ) : null}
+      </aside>
+    </div>
+  );
+}

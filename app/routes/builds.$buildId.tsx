@@ -1,0 +1,45 @@
+import { NavLink, Outlet } from "react-router";
+import { requireViewer } from "~/lib/auth.server";
+import { STATUS_LABELS } from "~/lib/build-forms";
+import { loadBuildFor } from "~/lib/build-access.server";
+import { can } from "~/lib/permissions";
+import type { Route } from "./+types/builds.$buildId";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.build.name ?? "Build"} · Hiltbench` }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const v = await requireViewer(request, "view:builds");
+  const b = await loadBuildFor(v, params.buildId);
+  return {
+    build: { id: b.id, name: b.name, status: b.status, client_name: b.client_name, archived: b.archived_at !== null },
+    canEdit: can(v.role, "edit:build"),
+  };
+}
+
+const tab = ({ isActive }: { isActive: boolean }) =>
+  `border-b-2 px-3 py-2 text-sm no-underline ${isActive ? "border-ember-500 text-iron-100" : "border-transparent text-iron-300 hover:text-iron-100"}`;
+
+export default function BuildLayout({ loaderData }: Route.ComponentProps) {
+  const { build } = loaderData;
+  return (
+    <div>
+      <div className="flex flex-wrap items-baseline gap-3">
+        <h1>{build.name}</h1>
+        <span className="rounded bg-soot-700 px-2 py-0.5 text-xs">{STATUS_LABELS[build.status]}</span>
+        {build.archived ? <span className="rounded bg-soot-800 px-2 py-0.5 text-xs text-iron-400">Archived</span> : null}
+        <span className="text-iron-400">{build.client_name}</span>
+      </div>
+      <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
+        <NavLink to="." end className={tab}>
+          Overview
+        </NavLink>
+        <NavLink to="rig" className={tab}>
+          Rig
+        </NavLink>
+      </nav>
+      <div className="mt-5">
+        <Outlet />
+      </div>
+    </div>
+  );
+}

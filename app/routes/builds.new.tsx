@@ -1,0 +1,44 @@
+import { Form, redirect, useActionData } from "react-router";
+import { requireViewer } from "~/lib/auth.server";
+import { buildMetaSchema, fieldErrors } from "~/lib/build-forms";
+import { starterConfig } from "~/lib/config/starter";
+import { db } from "~/lib/db.server";
+import { createBuild, listClients } from "~/lib/repo/builds.server";
+import { data } from "react-router";
+import type { Route } from "./+types/builds.new";
+import { BuildMetaFields } from "~/components/BuildMetaFields";
+
+export const meta: Route.MetaFunction = () => [{ title: "New build · Hiltbench" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const v = await requireViewer(request, "create:build");
+  return { clients: await listClients(db(), v.workshop.id) };
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const v = await requireViewer(request, "create:build");
+  const parsed = buildMetaSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
+  const clients = await listClients(db(), v.workshop.id);
+  const meta = parsed.data;
+  if (meta.clientUserId && !clients.some((c) => c.id === meta.clientUserId))
+    return data({ errors: { clientUserId: "Choose a client account of this workshop." } }, { status: 400 });
+  const chosen = clients.find((c) => c.id === meta.clientUserId);
+  const { id } = await createBuild(db(), v.workshop.id, { ...meta, clientName: meta.clientName || chosen?.display_name || "" }, starterConfig());
+  throw redirect(`/builds/${id}`);
+}
+
+export default function NewBuild({ loaderData }: Route.ComponentProps) {
+  const result = useActionData<typeof action>();
+  return (
+    <div className="max-w-3xl">
+      <h1>New build</h1>
+      <Form method="post" className="card mt-4">
+        <BuildMetaFields clients={loaderData.clients} errors={result?.errors} />
+        <button type="submit" className="btn btn-primary mt-4">
+          Create build
+        </button>
+      </Form>
+    </div>
+  );
+}

@@ -1,0 +1,8 @@
+// The list of migrations, in order. A static list (rather than reading the folder) works the
+// same under tsx, Vitest and the Vite server build.
+import type { Migration } from "kysely";
+import * as m0001 from "./20261202_0001_foundation";
+
+export const migrations: Record<string, Migration> = {
+  "20261202_0001_foundation": m0001,
+};
