@@ -85,7 +85,14 @@ function compileNode(env: Env, n: Node): Run | null {
       return compileOver(env, n, from, to);
     case "let": {
       const x = compileExpr(env, n.value);
-      const slot = bind(env, env.scope, n.name, x.ty);
+      if (n.name === "config" || n.name === "meta") {
+        report(env, `'${n.name}' is the model itself and cannot be assigned`, n.from, n.to);
+        return null;
+      }
+      // 'let' updates the nearest variable of that name, so counters can run across loops.
+      const existing = env.scope.lookup(n.name);
+      if (existing && existing.ty.k !== x.ty.k) existing.ty = { k: "any" };
+      const slot = existing ? existing.slot : bind(env, env.scope, n.name, x.ty);
       const ev = x.ev;
       return (c) => {
         c.f[slot] = ev(c);
