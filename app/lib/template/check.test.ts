@@ -1,0 +1,104 @@
+import { describe, expect, it } from "vitest";
+import { compileTemplate } from "./compile";
+import { run } from "./test-helpers";
+
+const errorsOf = (src: string) => {
+  const c = compileTemplate(src);
+  return c.ok ? [] : c.errors.filter((e) => e.severity === "error");
+};
+
+describe("schema check at compile time", () => {
+  it("suggests the intended field for a misspelt one", () => {
+    const src = "@[ over config.presets as p ]@@[ over p.looks.blade.layers as layer ]@@( layer.sped )@@[ /over ]@@[ /over ]@";
+    const [e] = errorsOf(src);
+    expect(e).toMatchObject({ stage: "check", message: "unknown field 'sped' on layer — did you mean 'speedPixelsPerSecond'?" });
+    expect(src.slice(e.from, e.to)).toBe("sped");
+  });
+
+  it("knows the fields of every layer kind (a union has the union of fields)", () => {
+    const src = "@[ over config.presets as p ]@@[ over p.looks.blade.layers as l ]@@( l.decayMs |> default(0) )@ @( l.easing |> default('-') )@ @( l.stops |> default(nothing) |> count )@@[ /over ]@@[ /over ]@";
+    expect(errorsOf(src)).toEqual([]);
+  });
+
+  it("gives loop variables the element type of their list", () => {
+    expect(errorsOf("@[ over config.rig.channels as ch ]@@( ch.pixles )@@[ /over ]@")[0].message).toBe("unknown field 'pixles' on channel — did you mean 'pixels'?");
+    expect(errorsOf("@[ over config.fonts as f, n ]@@( n.frist )@@[ /over ]@")[0].message).toMatch(/unknown field 'frist' on loop information — did you mean 'first'\?/);
+  });
+
+  it("checks names, filters, argument counts and input types", () => {
+    expect(errorsOf("@( confg.format )@")[0].message).toMatch(/unknown name 'confg' — did you mean 'config'\?/);
+    expect(errorsOf("@( meta.buildName |> uper )@")[0].message).toBe("unknown filter 'uper' — did you mean 'upper'?");
+    expect(errorsOf("@( meta.buildName |> pad )@")[0].message).toBe("filter 'pad' takes 1 to 3 arguments, got 0");
+    expect(errorsOf("@( meta.buildName |> upper(1) )@")[0].message).toBe("filter 'upper' takes 0 arguments, got 1");
+    expect(errorsOf("@( config.rig.board.maxPixelsPerPin |> upper )@")[0].message).toBe("filter 'upper' needs text, but gets a number");
+    expect(errorsOf("@( meta.buildName |> fixed(2) )@")[0].message).toBe("filter 'fixed' needs a number, but gets text");
+    expect(errorsOf("@( config.presets |> cstr )@")[0].message).toBe("filter 'cstr' needs text, but gets a list");
+    expect(errorsOf("@( meta.buildName + 1 )@")[0].message).toBe("'+' needs a number, not text");
+  });
+
+  it("rejects printing whole objects and walking non-lists", () => {
+    expect(errorsOf("@( config.rig )@")[0].message).toMatch(/cannot print a whole rig/);
+    expect(errorsOf("@[ over config.presets as p ]@@[ over p.looks as l ]@@[ /over ]@@[ /over ]@")[0].message).toMatch(/'\|> entries'/);
+    expect(errorsOf("@[ over config.rig.board as b ]@@[ /over ]@")[0].message).toMatch(/'over' needs a list, not a board/);
+  });
+
+  it("treats prototype keys as unknown fields", () => {
+    for (const key of ["__proto__", "constructor", "prototype", "toString", "hasOwnProperty"]) {
+      expect(errorsOf(`@( config.${key} )@`)[0].message).toMatch(new RegExp(`unknown field '${key}' on config`));
+    }
+    expect(errorsOf("@( meta |> constructor )@")[0].message).toMatch(/unknown filter 'constructor'/);
+  });
+
+  it("flags model text printed into C without a C context filter", () => {
+    const c = compileTemplate("@[ target c ]@\nconst char *n = \"@( meta.buildName )@\"; @( meta.buildName |> upper )@ @( meta.buildName |> cstr )@ @( meta.buildName |> ccomment )@ @( config.format )@");
+    expect(c.ok).toBe(true);
+    if (c.ok) {
+      expect(c.warnings).toHaveLength(2);
+      expect(c.warnings[0]).toMatchObject({ stage: "check", severity: "warning", line: 2 });
+      expect(c.warnings[0].message).toMatch(/without a C filter/);
+    }
+    const text = compileTemplate("@( meta.buildName )@");
+    expect(text.ok && text.warnings).toEqual([]);
+  });
+
+  it("checks piece parameters and reports partial cycles", () => {
+    expect(errorsOf("@[ piece a(x) ]@@( x )@@[ /piece ]@@[ use a(y = 1) ]@").map((e) => e.message)).toEqual([
+      "piece 'a' has no parameter 'y' — did you mean 'x'?",
+      "piece 'a' needs the parameter 'x'",
+    ]);
+    const cyc = errorsOf("@[ piece a ]@@[ use b ]@@[ /piece ]@@[ piece b ]@@[ use a ]@@[ /piece ]@@[ use a ]@");
+    expect(cyc[0].message).toBe("partial cycle: a → b → a");
+    const ext = compileTemplate('@[ use "one" ]@', { partials: (n) => (n === "one" ? '@[ use "two" ]@' : n === "two" ? '@[ use "one" ]@' : undefined) });
+    expect(!ext.ok && ext.errors[0].message).toMatch(/partial cycle: "one" → "two" → "one"/);
+    expect(errorsOf('@[ use "missing" ]@')[0].message).toBe('no template named "missing" is available to use');
+  });
+
+  it("points errors inside another template at the 'use' that brought it in", () => {
+    const src = 'header\n@[ use "shared" ]@';
+    const c = compileTemplate(src, { partials: () => "line\n@( config.rig.bord )@" });
+    expect(c.ok).toBe(false);
+    if (!c.ok) {
+      expect(c.errors[0]).toMatchObject({ line: 2, column: 1 });
+      expect(c.errors[0].message).toMatch(/in template "shared" at 2:\d+: unknown field 'bord' on rig — did you mean 'board'\?/);
+    }
+  });
+
+  it("expands pieces a bounded number of times", () => {
+    let src = "@[ piece p0 ]@x@[ /piece ]@";
+    for (let i = 1; i <= 14; i++) src += `@[ piece p${i} ]@@[ use p${i - 1} ]@@[ use p${i - 1} ]@@[ /piece ]@`;
+    src += "@[ use p14 ]@";
+    expect(errorsOf(src)[0].message).toMatch(/more than the limit of 2000 partial expansions/);
+    let deep = "@[ piece q0 ]@x@[ /piece ]@";
+    for (let i = 1; i <= 20; i++) deep += `@[ piece q${i} ]@@[ use q${i - 1} ]@@[ /piece ]@`;
+    deep += "@[ use q20 ]@";
+    expect(errorsOf(deep)[0].message).toMatch(/partials are nested deeper than the limit of 16/);
+  });
+
+  it("reports every check error with a stage and position", () => {
+    const r = run("@( config.nope )@\n@( meta.nope )@");
+    expect(r.errors.map((e) => [e.stage, e.line, e.column])).toEqual([
+      ["check", 1, 11],
+      ["check", 2, 9],
+    ]);
+  });
+});

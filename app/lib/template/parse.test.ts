@@ -1,0 +1,71 @@
+import { describe, expect, it } from "vitest";
+import { parseCached, parseTemplate, templateCache } from "./cache";
+import { formatError } from "./errors";
+import { out, run } from "./test-helpers";
+
+describe("parser", () => {
+  it("builds a typed AST with spans", () => {
+    const p = parseTemplate("a@( x.y |> pad(3) )@");
+    expect(p.errors).toEqual([]);
+    const node = p.ast!.body[1];
+    expect(node.k).toBe("out");
+    if (node.k === "out") {
+      expect(node.expr).toMatchObject({ k: "filter", name: "pad", input: { k: "get", key: "y", obj: { k: "var", name: "x" } }, args: [{ k: "lit", value: 3 }] });
+      expect(node.from).toBe(1);
+    }
+  });
+
+  it("points 'never closed' at the opening tag", () => {
+    const src = "one\n@[ over config.presets as p ]@\n  @[ when true ]@\n  x\n  @[ /when ]@\n";
+    const r = run(src);
+    expect(r.errors).toHaveLength(1);
+    expect(r.errors[0]).toMatchObject({ stage: "parse", line: 2, column: 1, message: "'over' is never closed with '@[ /over ]@'" });
+  });
+
+  it("reports several errors in one pass", () => {
+    const src = "@( 1 + )@\n@[ frobnicate ]@\n@( config. )@\n@[ /over ]@\n@[ when ]@x";
+    const r = run(src);
+    const lines = r.errors.map((e) => e.line);
+    expect(r.errors.every((e) => e.stage === "parse")).toBe(true);
+    expect(lines).toEqual(expect.arrayContaining([1, 2, 3, 4, 5]));
+    expect(r.errors.find((e) => e.line === 2)!.message).toMatch(/unknown statement 'frobnicate'/);
+    expect(r.errors.find((e) => e.line === 4)!.message).toMatch(/'\/over' without a matching opening tag/);
+  });
+
+  it("rejects 'orwhen' after 'otherwise'", () => {
+    const r = run("@[ when true ]@a@[ otherwise ]@b@[ orwhen false ]@c@[ /when ]@");
+    expect(r.errors[0].message).toMatch(/'orwhen' after 'otherwise'/);
+  });
+
+  it("limits nesting depth with a clear error", () => {
+    const deep = "@[ when true ]@".repeat(100) + "x" + "@[ /when ]@".repeat(100);
+    const r = run(deep);
+    expect(r.errors[0].message).toMatch(/nested deeper than the limit of 64/);
+    const parens = "@( " + "(".repeat(200) + "1" + ")".repeat(200) + " )@";
+    expect(run(parens).errors[0].message).toMatch(/nested deeper than the limit of 64/);
+  });
+
+  it("formats a code frame with a caret under the span", () => {
+    const src = "first line\n@( config.rig.chanels |> count )@\n";
+    const r = run(src);
+    const frame = formatError(r.errors[0], src);
+    expect(frame).toBe(
+      [
+        "error (check) at 2:15: unknown field 'chanels' on rig — did you mean 'channels'?",
+        "  1 | first line",
+        "> 2 | @( config.rig.chanels |> count )@",
+        "    |               ^^^^^^^",
+      ].join("\n"),
+    );
+  });
+
+  it("caches parses by source", () => {
+    templateCache.clear();
+    const src = "@( meta.buildName )@ cached";
+    const a = parseCached(src);
+    expect(templateCache.has(src)).toBe(true);
+    expect(parseCached(src)).toBe(a);
+    expect(out(src)).toBe("Kestrel cached");
+    expect(templateCache.size).toBe(1);
+  });
+});
