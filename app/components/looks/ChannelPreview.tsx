@@ -70,8 +70,8 @@ export function ChannelPreview({
         width={w}
         height={h}
         aria-hidden="true"
-        className={`absolute inset-0 h-full w-full ${shape} opacity-70 blur-md`}
-        style={{ imageRendering: "pixelated", transform: "scale(1.6)" }}
+        className={`pointer-events-none absolute inset-0 h-full w-full ${shape} opacity-60 blur-md`}
+        style={{ imageRendering: "pixelated", transform: vertical ? "scaleX(2.4)" : single ? "scale(1.8)" : "scaleY(2.4)" }}
       />
       <canvas
         ref={sharp}

@@ -2,7 +2,7 @@ import { PNG } from "pngjs";
 import { describe, expect, it } from "vitest";
 import { demoConfig } from "~/lib/config/demo";
 import { lookTimeImage } from "./image";
-import { encodePng } from "./png.server";
+import { encodePng, lookTimePng } from "./png.server";
 
 describe("lookTimeImage", () => {
   const config = demoConfig();
@@ -39,6 +39,11 @@ describe("encodePng", () => {
     expect(back.width).toBe(7);
     expect(back.height).toBe(450);
     expect(Buffer.compare(back.data, Buffer.from(img.rgba))).toBe(0);
+  });
+
+  it("encodes a look's picture in one call", () => {
+    const back = PNG.sync.read(lookTimePng(demoConfig(), "ashfall", "crystal"));
+    expect([back.width, back.height]).toEqual([1, 450]);
   });
 
   it("writes an empty image as a valid 1 × 1 file", () => {
