@@ -59,6 +59,7 @@ export function toCComment(input: string): string {
 
 /** A C double constant that reads back to exactly the same number. */
 export function toCDouble(n: number): string {
+  if (Object.is(n, -0)) return "-0.0";
   const s = String(n);
   return /[.eE]/.test(s) ? s : s + ".0";
 }

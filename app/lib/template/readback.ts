@@ -140,7 +140,10 @@ class Reader {
         this.err(item.pos, `an index must be a whole number`);
         continue;
       }
-      if (seen.has(index)) this.err(item.pos, `entry [${index}] of '${name}' is given twice (first on line ${seen.get(index)!.line})`);
+      if (seen.has(index)) {
+        this.err(item.pos, `entry [${index}] of '${name}' is given twice (first on line ${seen.get(index)!.line})`);
+        continue;
+      }
       seen.set(index, item.pos);
       rows.push({ index, row: this.struct(item.value, spec, `${what} [${index}]`) });
     }

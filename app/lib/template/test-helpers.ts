@@ -1,4 +1,5 @@
 // Shared fixtures for the template tests.
+import { execFileSync } from "node:child_process";
 import { demoConfig } from "../config/demo";
 import type { RenderMeta } from "./compile";
 import { compileTemplate, renderTemplate, type CompileOptions } from "./compile";
@@ -25,4 +26,18 @@ export function out(source: string, opts: CompileOptions = {}): string {
   const r = run(source, opts);
   if (r.output === undefined) throw new Error(r.errors.map((e) => `${e.stage} ${e.line}:${e.column} ${e.message}`).join("\n"));
   return r.output;
+}
+
+/** The machine's C compiler is the outside judge of generated C; tests that need it skip without it. */
+export const hasCC = (() => {
+  try {
+    execFileSync("cc", ["--version"], { stdio: "ignore" });
+    return true;
+  } catch {
+    return false;
+  }
+})();
+
+export function ccCheck(header: string) {
+  execFileSync("cc", ["-std=c11", "-Wall", "-Werror", "-fsyntax-only", "-x", "c", "-"], { input: header, stdio: ["pipe", "pipe", "pipe"] });
 }
