@@ -133,6 +133,9 @@ export function startFakes(env = {}) {
   });
 }
 
+/** Where the built app goes; HB_BUILD_DIR lets two builds (say, two test runs) coexist. */
+export const buildDir = process.env.HB_BUILD_DIR ?? "build";
+
 export function buildApp() {
   log("building the app");
   run(path.join(root, "node_modules", ".bin", "react-router"), ["build"], { stdio: ["ignore", "ignore", "inherit"] });
@@ -140,7 +143,7 @@ export function buildApp() {
 
 /** Serve the built app and resolve once it answers HTTP. */
 export async function startApp(env, { quiet = false } = {}) {
-  const child = spawn(path.join(root, "node_modules", ".bin", "react-router-serve"), ["./build/server/index.js"], {
+  const child = spawn(path.join(root, "node_modules", ".bin", "react-router-serve"), [`./${buildDir}/server/index.js`], {
     cwd: root,
     env: { ...process.env, NODE_ENV: "production", ...env },
     stdio: ["ignore", quiet ? "ignore" : "inherit", "inherit"],

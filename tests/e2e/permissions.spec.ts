@@ -1,0 +1,87 @@
+// Every role against every route and API endpoint: allowed (2xx, or 400 for an allowed action
+// sent an empty form), forbidden (403), or sent to sign in. The last test checks that the
+// matrix names every route in app/routes.ts, so a new route cannot skip it.
+import type { RouteConfigEntry } from "@react-router/dev/routes";
+import routes from "../../app/routes";
+import { test, expect, signInRequest, buildIdByName, BASE_URL } from "./fixtures";
+
+type Who = "anonymous" | "owner" | "builder" | "reviewer" | "client";
+const LOGINS: Record<Exclude<Who, "anonymous">, string> = { owner: "demo-owner", builder: "demo-builder", reviewer: "demo-reviewer", client: "client-one" };
+type Outcome = "ok" | "bad" | "403" | "404" | "login" | "401" | "redirect";
+type Case = { route: string; method: "GET" | "POST"; path: (ids: Ids) => string; form?: Record<string, string>; expect: Record<Who, Outcome> };
+type Ids = { kestrel: string; harrier: string };
+
+const all = (o: Outcome): Record<Who, Outcome> => ({ anonymous: o, owner: o, builder: o, reviewer: o, client: o });
+const staff = (ok: Outcome, others: Outcome, anon: Outcome = "login"): Record<Who, Outcome> => ({ anonymous: anon, owner: ok, builder: ok, reviewer: others, client: others });
+
+const CASES: Case[] = [
+  { route: "/", method: "GET", path: () => "/", expect: { ...all("redirect"), anonymous: "ok" } },
+  { route: "/login", method: "GET", path: () => "/login", expect: { ...all("redirect"), anonymous: "ok" } },
+  { route: "/auth/github", method: "GET", path: () => "/auth/github", expect: all("redirect") },
+  { route: "/auth/github/callback", method: "GET", path: () => "/auth/github/callback", expect: all("redirect") },
+  { route: "/logout", method: "GET", path: () => "/logout", expect: all("redirect") },
+  { route: "/healthz", method: "GET", path: () => "/healthz", expect: all("ok") },
+  { route: "/builds", method: "GET", path: () => "/builds", expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/new", method: "GET", path: () => "/builds/new", expect: staff("ok", "403") },
+  { route: "/builds/new", method: "POST", path: () => "/builds/new", form: { name: "" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId", method: "GET", path: (i) => `/builds/${i.kestrel}`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId", method: "GET", path: (i) => `/builds/${i.harrier}`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
+  { route: "/builds/:buildId", method: "POST", path: (i) => `/builds/${i.kestrel}?index`, form: { intent: "save", name: "" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId/rig", method: "GET", path: (i) => `/builds/${i.kestrel}/rig`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/rig", method: "POST", path: (i) => `/builds/${i.kestrel}/rig`, form: { version: "0" }, expect: staff("bad", "403") },
+  { route: "/workshop", method: "GET", path: () => "/workshop", expect: { anonymous: "login", owner: "ok", builder: "ok", reviewer: "ok", client: "403" } },
+  { route: "/workshop", method: "POST", path: () => "/workshop", form: { intent: "invite", target: "" }, expect: { anonymous: "login", owner: "bad", builder: "403", reviewer: "403", client: "403" } },
+  { route: "/account", method: "GET", path: () => "/account", expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/account", method: "POST", path: () => "/account", form: { intent: "create", name: "" }, expect: { ...all("bad"), anonymous: "login" } },
+  { route: "/api/me", method: "GET", path: () => "/api/me", expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds", method: "GET", path: () => "/api/builds", expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId", method: "GET", path: (i) => `/api/builds/${i.harrier}`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
+];
+
+function matches(outcome: Outcome, status: number, location: string | undefined) {
+  switch (outcome) {
+    case "ok":
+      return status >= 200 && status < 300;
+    case "bad":
+      return status === 400;
+    case "login":
+      return status === 302 && (location ?? "").startsWith("/login");
+    case "redirect":
+      return status === 302 || status === 303;
+    default:
+      return status === Number(outcome);
+  }
+}
+
+for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who[]) {
+  test(`permission matrix: ${who}`, async ({ playwright, sql }) => {
+    const ids = { kestrel: await buildIdByName(sql, "Kestrel"), harrier: await buildIdByName(sql, "Harrier") };
+    const api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Origin: BASE_URL } });
+    if (who !== "anonymous") await signInRequest(api, LOGINS[who]);
+    const failures: string[] = [];
+    for (const c of CASES) {
+      const url = c.path(ids);
+      const res = c.method === "GET" ? await api.get(url, { maxRedirects: 0 }) : await api.post(url, { form: c.form, maxRedirects: 0 });
+      const want = c.expect[who];
+      if (!matches(want, res.status(), res.headers()["location"])) failures.push(`${c.method} ${url}: wanted ${want}, got ${res.status()}`);
+    }
+    expect(failures).toEqual([]);
+    await api.dispose();
+  });
+}
+
+test("the matrix covers every route in app/routes.ts", () => {
+  const paths: string[] = [];
+  const walk = (entries: RouteConfigEntry[], parent: string) => {
+    for (const e of entries) {
+      const here = e.path ? `${parent.replace(/\/$/, "")}/${e.path}` : parent;
+      if (e.children) walk(e.children, here);
+      if (e.index || (e.path && !e.children)) paths.push(e.path === "*" ? "*" : here || "/");
+      else if (e.children && e.path) paths.push(here);
+    }
+  };
+  walk(routes as RouteConfigEntry[], "");
+  const covered = new Set(CASES.map((c) => c.route));
+  expect([...new Set(paths)].filter((p) => !covered.has(p))).toEqual([]);
+});

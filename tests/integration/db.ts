@@ -1,0 +1,29 @@
+// Each integration test file gets its own database, copied from the migrated template that
+// `npm test` prepares (CREATE DATABASE ... TEMPLATE is about 0.1 s), and drops it afterwards.
+import { randomBytes } from "node:crypto";
+import pg from "pg";
+import { afterAll } from "vitest";
+import { connect } from "~/lib/db/connect";
+
+const base = process.env.TEST_DATABASE_BASE;
+const template = process.env.TEST_TEMPLATE_DB ?? "hb_template";
+
+export const hasDatabase = Boolean(base);
+
+export async function freshDb() {
+  if (!base) throw new Error("TEST_DATABASE_BASE is not set: run integration tests through `npm test`.");
+  const name = `t_${randomBytes(6).toString("hex")}`;
+  const admin = new pg.Client({ connectionString: `${base}/postgres` });
+  await admin.connect();
+  await admin.query(`CREATE DATABASE ${name} TEMPLATE ${template}`);
+  await admin.end();
+  const db = connect(`${base}/${name}`, 4);
+  afterAll(async () => {
+    await db.destroy();
+    const a = new pg.Client({ connectionString: `${base}/postgres` });
+    await a.connect();
+    await a.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+    await a.end();
+  });
+  return db;
+}
