@@ -2,6 +2,7 @@
 // are data, never thrown. When the schema fails, only its diagnostics are returned, plus a note
 // that the other checks wait: rules written for a well-formed config would otherwise report
 // noise (a "missing" channel that is only misspelt, power for a look that did not parse).
+import { engineDrawSource } from "../effects/draw-source";
 import { powerSummary, type PowerSummary } from "../power/estimate";
 import { DiagnosticSink, sortDiagnostics, type Diagnostic } from "./diagnostics";
 import { buildContext } from "./rules/context";
@@ -18,7 +19,14 @@ export type { PowerSummary } from "../power/estimate";
 
 export type ValidationResult = { config: Config | null; diagnostics: Diagnostic[]; power: PowerSummary | null };
 
-export function validateConfig(input: unknown): ValidationResult {
+/**
+ * power: "estimate" (default) takes LED current from a bound over the looks' colours, fast enough
+ * for every keystroke; "engine" renders every frame of the demonstration sequence (what the API
+ * and the look editor show), about 85 ms for the demo config.
+ */
+export type ValidateOptions = { power?: "estimate" | "engine" };
+
+export function validateConfig(input: unknown, options: ValidateOptions = {}): ValidationResult {
   const parsed = configSchema.safeParse(input);
   if (!parsed.success) {
     const diagnostics = structureDiagnostics(parsed.error.issues, input);
@@ -32,7 +40,7 @@ export function validateConfig(input: unknown): ValidationResult {
     return { config: null, diagnostics, power: null };
   }
   const config = parsed.data;
-  const power = powerSummary(config);
+  const power = powerSummary(config, options.power === "engine" ? engineDrawSource() : undefined);
   const sink = new DiagnosticSink();
   const ctx = buildContext(config, power, sink);
   referenceRules(ctx);
@@ -43,6 +51,6 @@ export function validateConfig(input: unknown): ValidationResult {
   return { config, diagnostics: sortDiagnostics(sink.list), power };
 }
 
-export function validate(input: unknown): Diagnostic[] {
-  return validateConfig(input).diagnostics;
+export function validate(input: unknown, options: ValidateOptions = {}): Diagnostic[] {
+  return validateConfig(input, options).diagnostics;
 }
