@@ -2,7 +2,7 @@
 // test: type-check, Vitest (unit and Postgres-backed), and Playwright in Debian's Chromium
 // against the built app. The cluster is removed afterwards.
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, readFileSync, existsSync } from "node:fs";
+import { chmodSync, mkdtempSync, readFileSync, existsSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { randomBytes } from "node:crypto";
@@ -47,6 +47,7 @@ function counts(file, kind) {
 
 let ok = true;
 const work = mkdtempSync(path.join(tmpdir(), "hiltbench-test-"));
+chmodSync(work, 0o755); // the postgres user keeps its throwaway cluster in here
 try {
   ensureNodeModules();
   if (only !== "unit") ensureChromium();

@@ -54,3 +54,12 @@ test("a cross-site form post is refused", async ({ page, signIn }) => {
   await page.goto("/workshop");
   await expect(page.getByText("intruder")).toHaveCount(0);
 });
+
+test("pages are served under a Content Security Policy without unsafe-eval", async ({ page, pageErrors }) => {
+  void pageErrors;
+  const res = await page.goto("/login");
+  const csp = res?.headers()["content-security-policy"] ?? "";
+  expect(csp).toContain("default-src 'self'");
+  expect(csp).not.toContain("unsafe-eval");
+  expect(res?.headers()["x-content-type-options"]).toBe("nosniff");
+});
