@@ -26,7 +26,11 @@ export function toCIdentifier(input: string): string {
 }
 
 /** A C string literal: printable ASCII kept, the rest escaped; '??' split so no trigraph forms. */
+const PLAIN_C = /^[\x20-\x21\x23-\x3e\x40-\x5b\x5d-\x7e]*$/;
+
 export function toCString(input: string): string {
+  // Most model text is printable ASCII without quotes, backslashes or '?': nothing to escape.
+  if (PLAIN_C.test(input)) return '"' + input + '"';
   let out = '"';
   const bytes = new TextEncoder().encode(input);
   let prevQ = false;
@@ -59,7 +63,7 @@ export function toCComment(input: string): string {
 
 /** A C double constant that reads back to exactly the same number. */
 export function toCDouble(n: number): string {
-  if (Object.is(n, -0)) return "-0.0";
+  if (Number.isInteger(n) && Math.abs(n) < 1e21) return Object.is(n, -0) ? "-0.0" : n + ".0";
   const s = String(n);
   return /[.eE]/.test(s) ? s : s + ".0";
 }

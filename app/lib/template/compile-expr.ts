@@ -116,12 +116,20 @@ function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
   }
   const r = root.ev;
   let ev: Ev;
-  if (keys.length === 1) {
-    const [k0] = keys;
-    ev = (c) => readKey(r(c), k0);
-  } else if (keys.length === 2) {
+  // Keys are fixed here, so only keys that could reach a prototype pay for the own-key check.
+  if (keys.length === 1 && !PROTO_KEYS.has(keys[0])) {
+    const k0 = keys[0];
+    ev = (c) => {
+      const o = r(c);
+      return o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
+    };
+  } else if (keys.length === 2 && !PROTO_KEYS.has(keys[0]) && !PROTO_KEYS.has(keys[1])) {
     const [k0, k1] = keys;
-    ev = (c) => readKey(readKey(r(c), k0), k1);
+    ev = (c) => {
+      const o = r(c);
+      const m = o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
+      return m !== null && typeof m === "object" && !Array.isArray(m) ? (m as Record<string, unknown>)[k1] : undefined;
+    };
   } else {
     ev = (c) => {
       let v = r(c);
@@ -244,6 +252,16 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
     ev = (c) => {
       try {
         return fn(inp(c), none, c);
+      } catch (err) {
+        throw wrap(err);
+      }
+    };
+  } else if (argEvs.length === 1) {
+    const a0 = argEvs[0];
+    ev = (c) => {
+      const vs = [a0(c)];
+      try {
+        return fn(inp(c), vs, c);
       } catch (err) {
         throw wrap(err);
       }

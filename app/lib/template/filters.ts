@@ -61,6 +61,18 @@ export function toText(v: unknown): string {
   return fail(`cannot print ${show(v)} directly; use '|> join(…)', '|> json' or a field`);
 }
 
+// Case conversions see the same few enum values over and over: remember them (bounded).
+const snakeMemo = new Map<string, string>();
+function snakeCase(s: string): string {
+  let r = snakeMemo.get(s);
+  if (r === undefined) {
+    r = words(s).join("_").toLowerCase();
+    if (snakeMemo.size > 4096) snakeMemo.clear();
+    snakeMemo.set(s, r);
+  }
+  return r;
+}
+
 function words(s: string): string[] {
   return s
     .replace(/([a-z0-9])([A-Z])/g, "$1 $2")
@@ -79,7 +91,7 @@ const elem = (t: Ty): Ty => (t.k === "list" ? t.of : { k: "any" });
 const GENERAL: [string, FilterDef][] = [
   ["upper", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => needStr(v, "the input").toUpperCase() }],
   ["lower", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => needStr(v, "the input").toLowerCase() }],
-  ["snake", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => words(needStr(v, "the input")).join("_").toLowerCase() }],
+  ["snake", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => snakeCase(needStr(v, "the input")) }],
   ["text", { min: 0, max: 0, input: "any", out: keepFree, fn: (v) => toText(v) }],
   [
     "pad",
