@@ -15,7 +15,7 @@ export function securityHeaders(): Record<string, string> {
       "script-src 'self' 'unsafe-inline'",
       "style-src 'self' 'unsafe-inline'",
       "img-src 'self' data: blob:",
-      "font-src 'self'",
+      "font-src 'self' data:", // small font files are inlined by the bundler
       "connect-src 'self'",
       "object-src 'none'",
       "base-uri 'self'",
