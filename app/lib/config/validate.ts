@@ -5,17 +5,19 @@
 import { engineDrawSource } from "../effects/draw-source";
 import { powerSummary, type PowerSummary } from "../power/estimate";
 import { DiagnosticSink, sortDiagnostics, type Diagnostic } from "./diagnostics";
-import { buildContext } from "./rules/context";
+import { buildContext, walkLayers } from "./rules/context";
 import { completenessRules } from "./rules/completeness";
-import { powerRules } from "./rules/power";
+import { powerLayerCheck, powerRules } from "./rules/power";
 import { referenceRules } from "./rules/references";
-import { rigRules } from "./rules/rig";
-import { timingRules } from "./rules/timing";
+import { rigLayerCheck, rigRules } from "./rules/rig";
+import { timingLayerCheck } from "./rules/timing";
 import { configSchema, type Config } from "./schema";
 import { structureDiagnostics } from "./structure";
 
 export type { Diagnostic } from "./diagnostics";
 export type { PowerSummary } from "../power/estimate";
+
+const LAYER_CHECKS = [rigLayerCheck, timingLayerCheck, powerLayerCheck];
 
 export type ValidationResult = { config: Config | null; diagnostics: Diagnostic[]; power: PowerSummary | null };
 
@@ -46,8 +48,9 @@ export function validateConfig(input: unknown, options: ValidateOptions = {}): V
   referenceRules(ctx);
   completenessRules(ctx);
   rigRules(ctx);
-  timingRules(ctx);
   powerRules(ctx);
+  // Per-layer checks share one walk over all looks.
+  walkLayers(ctx, LAYER_CHECKS);
   return { config, diagnostics: sortDiagnostics(sink.list), power };
 }
 

@@ -1,8 +1,9 @@
 // A conservative picture of a look without running the effect engine: an upper bound on each
-// colour of each pixel (for peaks) or a rough time-average (for typical draw). Each layer is
-// reduced to a few "states" (off, on, dimmed); every blend mode is monotone in the colour
-// underneath, so keeping the brightest state at each step stays an upper bound. Pixels are
-// grouped into runs that every layer treats alike, so a 264-pixel blade costs a dozen runs.
+// colour of each pixel (for peaks) or a rough time-average (for typical draw). Every blend mode
+// here is monotone in both the colour underneath and the layer's own colour, so a layer whose
+// brightness varies (breathe, shimmer, hold flicker) is bounded by its brightest colour, and a
+// layer that may be absent (an event, a flicker to nothing) by the larger of "on" and "off".
+// Pixels are grouped into runs every layer treats alike: a 264-pixel blade costs a dozen runs.
 import type { Layer, Look } from "../config/schema";
 
 export type Mode = "peak" | "typical";
@@ -11,21 +12,41 @@ export type Mode = "peak" | "typical";
  * Piecewise-constant RGB (0–1): run j covers pixels [starts[j], starts[j+1]) and has colour
  * rgb[3j..3j+2]; starts ends with the pixel count.
  */
-export type Bound = { starts: number[]; rgb: Float32Array };
+export type Bound = { starts: number[]; rgb: number[] };
 
-/** `over` returns the colour component k averaged (typical) or maxed (peak) over [from, to). */
-type State = { r: number; g: number; b: number; alpha: number; from: number; to: number; over?: (from: number, to: number, k: number) => number };
+/**
+ * One layer reduced to a colour over pixels [from, to). `over` gives a per-pixel colour's
+ * component k maxed (peak) or averaged (typical) over a run; `optional` means the layer may
+ * also be absent, so the colour underneath can show through unchanged.
+ */
+type Part = {
+  blend: Layer["blend"];
+  r: number;
+  g: number;
+  b: number;
+  alpha: number;
+  from: number;
+  to: number;
+  optional: boolean;
+  over: ((from: number, to: number, k: number) => number) | null;
+};
 
-const hexCache = new Map<string, [number, number, number]>();
+function hexDigit(c: number): number {
+  // '0'–'9', 'A'–'F', 'a'–'f'; the schema has already checked the characters.
+  return c <= 57 ? c - 48 : (c | 32) - 87;
+}
 
-export function hexToUnit(hex: string): [number, number, number] {
-  let c = hexCache.get(hex);
-  if (!c) {
-    const n = Number.parseInt(hex.slice(1), 16);
-    c = [((n >> 16) & 255) / 255, ((n >> 8) & 255) / 255, (n & 255) / 255];
-    hexCache.set(hex, c);
-  }
-  return c;
+/**
+ * One channel of #rrggbb as 0–1, without allocating strings. Hot paths in this folder avoid
+ * named inner closures: the TypeScript runner wraps each in a naming call that costs ~0.5 µs.
+ */
+function hexByte(hex: string, at: number): number {
+  return (hexDigit(hex.charCodeAt(at)) * 16 + hexDigit(hex.charCodeAt(at + 1))) / 255;
+}
+
+/** Whether a look shows the same layers lit and unlit (then one bound serves both). */
+export function litMatters(look: Look | undefined): boolean {
+  return look?.layers.some((l) => l.enabled && l.when !== "always") ?? false;
 }
 
 function blend(mode: Layer["blend"], under: number, over: number, a: number): number {
@@ -53,27 +74,33 @@ export function spotRange(position: number, widthPixels: number, pixels: number)
   return [Math.max(0, from), Math.min(pixels, from + widthPixels)];
 }
 
-function solid(hex: string, k: number, alpha: number, from: number, to: number): State {
-  const [r, g, b] = hexToUnit(hex);
-  return { r: r * k, g: g * k, b: b * k, alpha, from, to };
+function solid(layer: Layer, hex: string, k: number, alpha: number, from: number, to: number, optional = false): Part {
+  return { blend: layer.blend, r: hexByte(hex, 1) * k, g: hexByte(hex, 3) * k, b: hexByte(hex, 5) * k, alpha, from, to, optional, over: null };
+}
+
+function perPixel(layer: Layer, alpha: number, from: number, to: number, over: Part["over"]): Part {
+  return { blend: layer.blend, r: 0, g: 0, b: 0, alpha, from, to, optional: false, over };
+}
+
+type Stop = { at: number; color: string };
+
+function gradientAt(stops: Stop[], pixels: number, i: number, k: number): number {
+  const t = pixels === 1 ? 0 : i / (pixels - 1);
+  let s = 0;
+  while (s < stops.length - 2 && t > stops[s + 1].at) s++;
+  const a = stops[s];
+  const b = stops[s + 1];
+  const span = b.at - a.at;
+  const f = span <= 0 ? (t >= b.at ? 1 : 0) : Math.min(1, Math.max(0, (t - a.at) / span));
+  const ca = hexByte(a.color, 1 + 2 * k);
+  return ca + (hexByte(b.color, 1 + 2 * k) - ca) * f;
 }
 
 function gradientOver(layer: Extract<Layer, { kind: "gradient" }>, pixels: number, mode: Mode) {
   const stops = [...layer.stops].sort((a, b) => a.at - b.at);
-  const at = (i: number, k: number) => {
-    const t = pixels === 1 ? 0 : i / (pixels - 1);
-    let s = 0;
-    while (s < stops.length - 2 && t > stops[s + 1].at) s++;
-    const a = stops[s];
-    const b = stops[s + 1];
-    const span = b.at - a.at;
-    const f = span <= 0 ? (t >= b.at ? 1 : 0) : Math.min(1, Math.max(0, (t - a.at) / span));
-    const ca = hexToUnit(a.color)[k];
-    return ca + (hexToUnit(b.color)[k] - ca) * f;
-  };
   return (from: number, to: number, k: number) => {
     let v = 0;
-    for (let i = from; i < to; i++) v = mode === "peak" ? Math.max(v, at(i, k)) : v + at(i, k) / (to - from);
+    for (let i = from; i < to; i++) v = mode === "peak" ? Math.max(v, gradientAt(stops, pixels, i, k)) : v + gradientAt(stops, pixels, i, k) / (to - from);
     return v;
   };
 }
@@ -108,54 +135,70 @@ function mirrorOver(target: Bound, pixels: number, fit: "stretch" | "crop", mode
   };
 }
 
-function statesOf(layer: Layer, pixels: number, mode: Mode, mirror: (id: string) => Bound | null): State[] {
+function partOf(layer: Layer, pixels: number, mode: Mode, mirror: (id: string) => Bound | null): Part | null {
   const [from, to] = layerRange(layer, pixels);
-  if (to <= from) return [];
+  if (to <= from) return null;
   const op = layer.opacity;
   const peak = mode === "peak";
   switch (layer.kind) {
     case "fill":
-      return [solid(layer.color, 1, op, from, to)];
+      return solid(layer, layer.color, 1, op, from, to);
     case "gradient":
-      return [{ r: 0, g: 0, b: 0, alpha: op, from, to, over: gradientOver(layer, pixels, mode) }];
+      return perPixel(layer, op, from, to, gradientOver(layer, pixels, mode));
     case "drift": {
       // Bands move past every pixel, so a pixel can show any of the colours.
-      const cs = layer.colors.map(hexToUnit);
-      const pick = (k: number) => (peak ? Math.max(...cs.map((c) => c[k])) : cs.reduce((s, c) => s + c[k], 0) / cs.length);
-      return [{ r: pick(0), g: pick(1), b: pick(2), alpha: op, from, to }];
+      let r = 0;
+      let g = 0;
+      let b = 0;
+      const n = layer.colors.length;
+      for (const hex of layer.colors) {
+        const cr = hexByte(hex, 1);
+        const cg = hexByte(hex, 3);
+        const cb = hexByte(hex, 5);
+        if (peak) {
+          r = Math.max(r, cr);
+          g = Math.max(g, cg);
+          b = Math.max(b, cb);
+        } else {
+          r += cr / n;
+          g += cg / n;
+          b += cb / n;
+        }
+      }
+      return { blend: layer.blend, r, g, b, alpha: op, from, to, optional: false, over: null };
     }
     case "breathe": {
       const hi = Math.max(layer.floor, layer.ceiling);
       const lo = Math.min(layer.floor, layer.ceiling);
-      return peak
-        ? [solid(layer.color, hi, op, from, to), solid(layer.color, lo, op, from, to)]
-        : [solid(layer.color, (hi + lo) / 2, op, from, to)];
+      return solid(layer, layer.color, peak ? hi : (hi + lo) / 2, op, from, to);
     }
     case "shimmer":
-      // Read either as a flickering opacity or as a dimming colour: bound both readings.
-      return peak
-        ? [solid(layer.color, 1, 0, from, to), solid(layer.color, 1, op, from, to), solid(layer.color, 1 - layer.amount, op, from, to)]
-        : [solid(layer.color, 1, (op * layer.amount) / 2, from, to)];
+      // Read either as a flickering opacity (0 up to full) or as a dimming colour: at peak the
+      // full-opacity colour and "no layer at all" bound both readings.
+      return peak ? solid(layer, layer.color, 1, op, from, to, true) : solid(layer, layer.color, 1, (op * layer.amount) / 2, from, to);
     case "spark":
     case "hold": {
       // Events are off in the typical picture; at peak any of them may be firing at once.
-      if (!peak) return [];
+      if (!peak) return null;
       const [a, b] = spotRange(layer.position, layer.widthPixels, pixels);
       const f = Math.max(from, a);
       const t = Math.min(to, b);
-      if (t <= f) return [];
-      const dim = layer.kind === "hold" ? 1 - layer.flicker : 0;
-      return [solid(layer.color, 1, 0, f, t), solid(layer.color, 1, op, f, t), solid(layer.color, dim, op, f, t)];
+      return t <= f ? null : solid(layer, layer.color, 1, op, f, t, true);
     }
     case "wipe":
       // A wipe only hides pixels while it runs; the fully lit blade is the brighter case.
-      return [];
+      return null;
     case "mirror": {
       const target = mirror(layer.channelId);
-      if (!target) return [];
-      return [{ r: 0, g: 0, b: 0, alpha: op, from, to, over: mirrorOver(target, pixels, layer.fit, mode) }];
+      return target ? perPixel(layer, op, from, to, mirrorOver(target, pixels, layer.fit, mode)) : null;
     }
   }
+}
+
+function insertCut(starts: number[], v: number): void {
+  let i = starts.length;
+  while (i > 0 && starts[i - 1] > v) i--;
+  if (starts[i - 1] !== v) starts.splice(i, 0, v);
 }
 
 /**
@@ -164,34 +207,28 @@ function statesOf(layer: Layer, pixels: number, mode: Mode, mirror: (id: string)
  */
 export function lookBound(look: Look | undefined, pixels: number, mode: Mode, lit: boolean, mirror: (id: string) => Bound | null): Bound {
   const state = lit ? "lit" : "unlit";
-  const layers: { blend: Layer["blend"]; states: State[] }[] = [];
-  const cuts = new Set<number>([0, pixels]);
+  const parts: Part[] = [];
+  // Cut points, kept sorted and unique by insertion: a look has a few dozen at most.
+  const starts: number[] = [0, pixels];
   for (const layer of look?.layers ?? []) {
     if (!layer.enabled || (layer.when !== "always" && layer.when !== state)) continue;
-    const states = statesOf(layer, pixels, mode, mirror);
-    if (states.length === 0) continue;
-    layers.push({ blend: layer.blend, states });
-    for (const s of states) cuts.add(s.from).add(s.to);
+    const part = partOf(layer, pixels, mode, mirror);
+    if (!part) continue;
+    parts.push(part);
+    insertCut(starts, part.from);
+    insertCut(starts, part.to);
   }
-  const starts = [...cuts].sort((a, b) => a - b);
   const runs = starts.length - 1;
-  const rgb = new Float32Array(runs * 3);
-  for (const { blend: mode, states } of layers) {
+  const rgb: number[] = new Array(runs * 3).fill(0);
+  for (const p of parts) {
     for (let j = 0; j < runs; j++) {
       const a = starts[j];
-      const b = starts[j + 1];
+      if (a < p.from || a >= p.to) continue;
       for (let k = 0; k < 3; k++) {
         const under = rgb[j * 3 + k];
-        let best = -1;
-        for (const s of states) {
-          if (a < s.from || a >= s.to) {
-            best = Math.max(best, under);
-            continue;
-          }
-          const over = s.over ? s.over(a, b, k) : k === 0 ? s.r : k === 1 ? s.g : s.b;
-          best = Math.max(best, blend(mode, under, over, s.alpha));
-        }
-        rgb[j * 3 + k] = best;
+        const over = p.over ? p.over(a, starts[j + 1], k) : k === 0 ? p.r : k === 1 ? p.g : p.b;
+        const v = blend(p.blend, under, over, p.alpha);
+        rgb[j * 3 + k] = p.optional && under > v ? under : v;
       }
     }
   }

@@ -2,7 +2,7 @@
 // comes from a pluggable per-channel source: today a conservative estimate from the looks'
 // colours (bounds.ts); later the effect engine's rendered frames can be fed in instead.
 import type { Channel, Config, Preset } from "../config/schema";
-import { lookBound, type Bound, type Mode } from "./bounds";
+import { litMatters, lookBound, type Bound, type Mode } from "./bounds";
 import {
   audioMilliamps,
   boardIdleMilliamps,
@@ -55,23 +55,35 @@ function boundCurrentMilliamps(bound: Bound, channel: Channel, power: Config["ri
 
 /** The default source: bounds of every look in a preset, resolved through mirrors. */
 export function estimatedDrawSource(): ChannelDrawSource {
-  // One cache per preset object, so a preset's channels share each other's bounds.
-  const cache = new WeakMap<Preset, Map<string, Bound | null>>();
+  // Bounds of the preset being estimated, by channel id: slots peak-lit, peak-unlit, typical.
+  // null marks a bound being computed, i.e. a mirror cycle (the validator reports those).
+  let current: Preset | null = null;
+  let cache = new Map<string, (Bound | null | undefined)[]>();
+  let byId = new Map<string, Channel>();
+  let indexed: Config | null = null;
   const boundOf = (config: Config, preset: Preset, channelId: string, mode: Mode, lit: boolean): Bound | null => {
-    let m = cache.get(preset);
-    if (!m) cache.set(preset, (m = new Map()));
-    const key = `${mode}|${lit}|${channelId}`;
-    if (m.has(key)) {
-      const hit = m.get(key);
-      // null marks "being computed": a mirror cycle (reported by the validator). Assume full white.
-      if (hit === null) return fullWhite(config, channelId);
-      return hit ?? null;
+    if (config !== indexed) {
+      indexed = config;
+      byId = new Map(config.rig.channels.map((c) => [c.id, c]));
     }
-    const channel = config.rig.channels.find((c) => c.id === channelId);
+    if (preset !== current) {
+      current = preset;
+      cache = new Map();
+    }
+    const channel = byId.get(channelId);
     if (!channel) return null;
-    m.set(key, null);
-    const b = lookBound(preset.looks[channelId], channel.pixels, mode, lit, (id) => boundOf(config, preset, id, mode, lit));
-    m.set(key, b);
+    const look = preset.looks[channelId];
+    // Looks without lit/unlit layers are the same either way: share the lit bound.
+    if (!lit && !litMatters(look)) lit = true;
+    let slots = cache.get(channelId);
+    if (!slots) cache.set(channelId, (slots = [undefined, undefined, undefined, undefined]));
+    const slot = (mode === "peak" ? 0 : 2) + (lit ? 0 : 1);
+    const hit = slots[slot];
+    if (hit === null) return { starts: [0, channel.pixels], rgb: [1, 1, 1] };
+    if (hit) return hit;
+    slots[slot] = null;
+    const b = lookBound(look, channel.pixels, mode, lit, (id) => boundOf(config, preset, id, mode, lit));
+    slots[slot] = b;
     return b;
   };
   return (channel, preset, config) => {
@@ -81,11 +93,6 @@ export function estimatedDrawSource(): ChannelDrawSource {
     const mean = boundCurrentMilliamps(boundOf(config, preset, channel.id, "typical", true)!, channel, power);
     return { peakMa: Math.max(lit, unlit), meanMa: mean };
   };
-}
-
-function fullWhite(config: Config, channelId: string): Bound | null {
-  const channel = config.rig.channels.find((c) => c.id === channelId);
-  return channel ? { starts: [0, channel.pixels], rgb: new Float32Array([1, 1, 1]) } : null;
 }
 
 export function presetPower(config: Config, preset: Preset, source: ChannelDrawSource = estimatedDrawSource()): PresetPower {

@@ -32,15 +32,30 @@ export function layerPath(presetIndex: number, channelId: string, layerIndex: nu
   return `${lookPath(presetIndex, channelId)}.layers[${layerIndex}]`;
 }
 
-/** Calls `fn` for every layer of every look whose key names a channel of the rig. */
-export function eachLayer(ctx: RuleContext, fn: (layer: Layer, path: string, channel: Channel, presetIndex: number) => void): void {
-  ctx.config.presets.forEach((preset, pi) => {
-    for (const [channelId, look] of Object.entries(preset.looks)) {
+/** Where a layer sits; its path is only spelled out when a rule reports something. */
+export type LayerAt = { presetIndex: number; channelId: string; layerIndex: number };
+export type LayerCheck = (ctx: RuleContext, layer: Layer, at: LayerAt, channel: Channel) => void;
+
+export function pathOf(at: LayerAt, field?: string): string {
+  const base = layerPath(at.presetIndex, at.channelId, at.layerIndex);
+  return field ? `${base}.${field}` : base;
+}
+
+/** One walk over every layer of every look whose key names a channel, running all checks. */
+export function walkLayers(ctx: RuleContext, checks: readonly LayerCheck[]): void {
+  const presets = ctx.config.presets;
+  for (let pi = 0; pi < presets.length; pi++) {
+    const looks = presets[pi].looks;
+    for (const channelId in looks) {
       const channel = ctx.channels.get(channelId);
       if (!channel) continue;
-      look.layers.forEach((layer, li) => fn(layer, layerPath(pi, channelId, li), channel, pi));
+      const layers = looks[channelId].layers;
+      for (let li = 0; li < layers.length; li++) {
+        const at = { presetIndex: pi, channelId, layerIndex: li };
+        for (const check of checks) check(ctx, layers[li], at, channel);
+      }
     }
-  });
+  }
 }
 
 export function plural(n: number, word: string): string {

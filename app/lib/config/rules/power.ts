@@ -1,6 +1,6 @@
 // Electrical limits: peak current against the cell's continuous rating, and the drop in the
 // cell leads. The figures come from the power summary computed once per validation.
-import { eachLayer, type RuleContext } from "./context";
+import { pathOf, type LayerCheck, type RuleContext } from "./context";
 
 /** Share of the cell's continuous rating past which a peak is worth a warning. */
 export const PEAK_WARN_FRACTION = 0.8;
@@ -12,16 +12,16 @@ export const WIRE_DROP_WARN_FRACTION = 0.08;
 
 const amps = (a: number) => `${a.toFixed(1)} A`;
 
+export const powerLayerCheck: LayerCheck = (ctx, layer, at) => {
+  if (layer.kind === "breathe" && layer.floor > layer.ceiling)
+    ctx.sink.error("breathe-floor-above-ceiling", pathOf(at, "floor"), `The breathe floor (${layer.floor}) is above its ceiling (${layer.ceiling}).`, "Swap them: the floor is the dimmest point, the ceiling the brightest.");
+};
+
 export function powerRules(ctx: RuleContext): void {
   const { config, sink, power } = ctx;
   const p = config.rig.power;
   const rating = p.cellMaxContinuousAmps;
   const cap = power.overall.suggestedBrightnessCap;
-
-  eachLayer(ctx, (layer, path) => {
-    if (layer.kind === "breathe" && layer.floor > layer.ceiling)
-      sink.error("breathe-floor-above-ceiling", `${path}.floor`, `The breathe floor (${layer.floor}) is above its ceiling (${layer.ceiling}).`, "Swap them: the floor is the dimmest point, the ceiling the brightest.");
-  });
 
   power.presets.forEach((pp, pi) => {
     const preset = config.presets[pi];

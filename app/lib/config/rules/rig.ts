@@ -1,6 +1,6 @@
 // The hardware sheet must agree with the board and with itself: pins the board really has, one
 // channel per data line, no more pixels on a line than the board can drive, ranges that fit.
-import { eachLayer, type RuleContext } from "./context";
+import { pathOf, type LayerCheck, type RuleContext } from "./context";
 
 export function rigRules(ctx: RuleContext): void {
   const { config, sink } = ctx;
@@ -39,23 +39,24 @@ export function rigRules(ctx: RuleContext): void {
     const ch = channelOnPin.get(b.pin);
     if (ch !== undefined) sink.error("pin-used-as-data-and-input", path, `Pin ${b.pin} carries both button "${b.name}" and channel "${channels[ch].name}".`, "One pin cannot read a button and drive LEDs; move one of them.");
   });
+}
 
-  eachLayer(ctx, (layer, path, channel) => {
-    if (channel.pixels === 1 && (layer.kind === "gradient" || layer.kind === "drift"))
-      sink.warning("pattern-on-one-pixel", path, `A ${layer.kind} on "${channel.name}", which has one pixel, shows only a single colour.`, layer.kind === "gradient" ? "Use a fill with the colour you want." : "Use a breathe or fill instead.");
-    if (layer.range) {
-      const { start, end } = layer.range;
-      if (end <= start) sink.error("empty-range", `${path}.range`, `The range ${start}–${end} covers no pixels (end must be past start).`, "Set end to one past the last pixel the layer should cover.");
-      else if (end > channel.pixels)
-        sink.warning("range-beyond-channel", `${path}.range`, start >= channel.pixels ? `The range ${start}–${end} starts past the end of "${channel.name}" (${channel.pixels} pixels), so the layer never shows.` : `The range ${start}–${end} runs past the end of "${channel.name}" (${channel.pixels} pixels); the rest is cut off.`, `Keep the range within 0–${channel.pixels}.`);
-    }
-    if (layer.kind === "gradient") {
-      for (let s = 1; s < layer.stops.length; s++) {
-        if (layer.stops[s].at < layer.stops[s - 1].at) {
-          sink.warning("gradient-stops-out-of-order", `${path}.stops[${s}].at`, `Gradient stop ${s} (at ${layer.stops[s].at}) comes before stop ${s - 1} (at ${layer.stops[s - 1].at}).`, "List stops from base (0) to tip (1).");
-          break;
-        }
+export const rigLayerCheck: LayerCheck = (ctx, layer, at, channel) => {
+  const { sink } = ctx;
+  if (channel.pixels === 1 && (layer.kind === "gradient" || layer.kind === "drift"))
+    sink.warning("pattern-on-one-pixel", pathOf(at), `A ${layer.kind} on "${channel.name}", which has one pixel, shows only a single colour.`, layer.kind === "gradient" ? "Use a fill with the colour you want." : "Use a breathe or fill instead.");
+  if (layer.range) {
+    const { start, end } = layer.range;
+    if (end <= start) sink.error("empty-range", pathOf(at, "range"), `The range ${start}–${end} covers no pixels (end must be past start).`, "Set end to one past the last pixel the layer should cover.");
+    else if (end > channel.pixels)
+      sink.warning("range-beyond-channel", pathOf(at, "range"), start >= channel.pixels ? `The range ${start}–${end} starts past the end of "${channel.name}" (${channel.pixels} pixels), so the layer never shows.` : `The range ${start}–${end} runs past the end of "${channel.name}" (${channel.pixels} pixels); the rest is cut off.`, `Keep the range within 0–${channel.pixels}.`);
+  }
+  if (layer.kind === "gradient") {
+    for (let s = 1; s < layer.stops.length; s++) {
+      if (layer.stops[s].at < layer.stops[s - 1].at) {
+        sink.warning("gradient-stops-out-of-order", pathOf(at, `stops[${s}].at`), `Gradient stop ${s} (at ${layer.stops[s].at}) comes before stop ${s - 1} (at ${layer.stops[s - 1].at}).`, "List stops from base (0) to tip (1).");
+        break;
       }
     }
-  });
-}
+  }
+};

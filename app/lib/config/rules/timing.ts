@@ -2,7 +2,7 @@
 // standard: outside them an effect still runs but looks broken (a wipe too fast to see, a
 // breathe so slow it reads as a steady colour), so they are warnings. Zero or less is an error.
 import type { Layer } from "../schema";
-import { eachLayer, type RuleContext } from "./context";
+import { pathOf, type LayerCheck } from "./context";
 
 type Range = { min: number; max: number; unit: string; code: string; what: string };
 
@@ -29,15 +29,13 @@ function timingOf(layer: Layer): { value: number; field: string; range: Range } 
   }
 }
 
-export function timingRules(ctx: RuleContext): void {
-  const { sink } = ctx;
-  eachLayer(ctx, (layer, path) => {
-    const t = timingOf(layer);
-    if (!t) return;
-    const { value, field, range } = t;
-    const span = `${range.min}–${range.max} ${range.unit}`;
-    if (value <= 0) sink.error("timing-not-positive", `${path}.${field}`, `${range.what} of ${value} ${range.unit} cannot run; it must be above zero.`, `Use a value in the usual range, ${span}.`);
-    else if (value < range.min || value > range.max)
-      sink.warning(range.code, `${path}.${field}`, `${range.what} of ${value} ${range.unit} is outside the usual ${span}.`, value < range.min ? `Raise it to at least ${range.min} ${range.unit} so it can be seen.` : `Lower it to ${range.max} ${range.unit} or less.`);
-  });
-}
+export const timingLayerCheck: LayerCheck = (ctx, layer, at) => {
+  const t = timingOf(layer);
+  if (!t) return;
+  const { value, field, range } = t;
+  if (value > 0 && value >= range.min && value <= range.max) return;
+  const span = `${range.min}–${range.max} ${range.unit}`;
+  if (value <= 0) ctx.sink.error("timing-not-positive", pathOf(at, field), `${range.what} of ${value} ${range.unit} cannot run; it must be above zero.`, `Use a value in the usual range, ${span}.`);
+  else
+    ctx.sink.warning(range.code, pathOf(at, field), `${range.what} of ${value} ${range.unit} is outside the usual ${span}.`, value < range.min ? `Raise it to at least ${range.min} ${range.unit} so it can be seen.` : `Lower it to ${range.max} ${range.unit} or less.`);
+};
