@@ -14,6 +14,7 @@ export default [
     route("builds/:buildId", "routes/builds.$buildId.tsx", [
       index("routes/builds.$buildId._index.tsx"),
       route("rig", "routes/builds.$buildId.rig.tsx"),
+      route("looks", "routes/builds.$buildId.looks.tsx"),
     ]),
     route("workshop", "routes/workshop.tsx"),
     route("account", "routes/account.tsx"),
@@ -23,6 +24,7 @@ export default [
     route("me", "routes/api.me.ts"),
     route("builds", "routes/api.builds.ts"),
     route("builds/:buildId", "routes/api.builds.$buildId.ts"),
+    route("builds/:buildId/looks.png", "routes/api.builds.$buildId.looks-png.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

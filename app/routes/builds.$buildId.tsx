@@ -36,6 +36,9 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <NavLink to="rig" className={tab}>
           Rig
         </NavLink>
+        <NavLink to="looks" className={tab}>
+          Looks
+        </NavLink>
       </nav>
       <div className="mt-5">
         <Outlet />

@@ -29,6 +29,8 @@ const CASES: Case[] = [
   { route: "/builds/:buildId", method: "POST", path: (i) => `/builds/${i.kestrel}?index`, form: { intent: "save", name: "" }, expect: staff("bad", "403") },
   { route: "/builds/:buildId/rig", method: "GET", path: (i) => `/builds/${i.kestrel}/rig`, expect: { ...all("ok"), anonymous: "login" } },
   { route: "/builds/:buildId/rig", method: "POST", path: (i) => `/builds/${i.kestrel}/rig`, form: { version: "0" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId/looks", method: "GET", path: (i) => `/builds/${i.kestrel}/looks`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/looks", method: "GET", path: (i) => `/builds/${i.harrier}/looks`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
   { route: "/workshop", method: "GET", path: () => "/workshop", expect: { anonymous: "login", owner: "ok", builder: "ok", reviewer: "ok", client: "403" } },
   { route: "/workshop", method: "POST", path: () => "/workshop", form: { intent: "invite", target: "" }, expect: { anonymous: "login", owner: "bad", builder: "403", reviewer: "403", client: "403" } },
   { route: "/account", method: "GET", path: () => "/account", expect: { ...all("ok"), anonymous: "login" } },
@@ -36,6 +38,8 @@ const CASES: Case[] = [
   { route: "/api/me", method: "GET", path: () => "/api/me", expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds", method: "GET", path: () => "/api/builds", expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId", method: "GET", path: (i) => `/api/builds/${i.harrier}`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.kestrel}/looks.png?preset=ashfall&channel=crystal`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.harrier}/looks.png?preset=glasswind&channel=crystal`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 

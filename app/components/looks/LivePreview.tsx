@@ -45,6 +45,9 @@ export function LivePreview({ config, presetId }: { config: Config; presetId: st
   sessionRef.current ??= live.createLiveSession();
   const session = sessionRef.current;
   const handles = useRef(new Map<string, ChannelPreviewHandle>());
+  // Frames drawn since mount, on the section as data-frames-drawn: what the preview's fps test reads.
+  const framesDrawn = useRef(0);
+  const sectionRef = useRef<HTMLElement>(null);
   const [ui, setUi] = useState<Snapshot>(() => snapshot(session));
   const [summaries, setSummaries] = useState<Record<string, FrameSummary>>({});
   const refresh = () => setUi(snapshot(session));
@@ -80,6 +83,8 @@ export function LivePreview({ config, presetId }: { config: Config; presetId: st
         lastUi = now;
         setUi(snapshot(session));
       }
+      framesDrawn.current++;
+      sectionRef.current?.setAttribute("data-frames-drawn", String(framesDrawn.current));
       raf = requestAnimationFrame(loop);
     };
     raf = requestAnimationFrame(loop);
@@ -105,7 +110,7 @@ export function LivePreview({ config, presetId }: { config: Config; presetId: st
   };
 
   return (
-    <section className="card space-y-4" aria-label={`Live preview of ${preset.name}`}>
+    <section ref={sectionRef} className="card space-y-4" aria-label={`Live preview of ${preset.name}`}>
       <div className="flex flex-wrap items-end gap-8">
         {blade.map((c) => (
           <figure key={c.id} className="flex flex-col items-center gap-2">

@@ -1,0 +1,308 @@
+// A build's presets and looks in one screen: the preset list, the selected preset's settings, a
+// live preview of every channel, one column per channel with its layer stack, and the power
+// panel. State lives in the pure editor reducer; checks come from the server as edits settle.
+import { useCallback, useEffect, useMemo, useReducer, useState } from "react";
+import { useBlocker } from "react-router";
+import { hasErrors, type Diagnostic } from "~/lib/config/diagnostics";
+import type { Config } from "~/lib/config/schema";
+import { indexDiagnostics, presetPath } from "~/lib/looks/diagnostic-index";
+import { canRedo, canUndo, editorReducer, initEditor, isDirty, type EditorAction } from "~/lib/looks/editor-state";
+import { ChoiceInput, DiagnosticList, EditorContext } from "./controls";
+import { LivePreview } from "./LivePreview";
+import { LookColumn } from "./LookColumn";
+import { PowerPanel } from "./PowerPanel";
+import { PresetList } from "./PresetList";
+import { useLiveChecks } from "./useLiveChecks";
+
+type SaveMessage = { tone: "ok" | "error" | "info"; text: string } | null;
+
+export function LookEditor({ buildId, initial, version: initialVersion, canEdit }: { buildId: string; initial: Config; version: number; canEdit: boolean }) {
+  const [state, rawDispatch] = useReducer(editorReducer, initial, initEditor);
+  const dispatch = useCallback((a: EditorAction) => rawDispatch(a), []);
+  const [version, setVersion] = useState(initialVersion);
+  const [saving, setSaving] = useState(false);
+  const [message, setMessage] = useState<SaveMessage>(null);
+  const checks = useLiveChecks(state.config);
+  const index = useMemo(() => indexDiagnostics(checks.diagnostics), [checks.diagnostics]);
+  const dirty = isDirty(state);
+  const readOnly = !canEdit;
+  const context = useMemo(() => ({ checks: index, readOnly }), [index, readOnly]);
+
+  const presetIndex = state.config.presets.findIndex((p) => p.id === state.selectedPresetId);
+  const preset = presetIndex >= 0 ? state.config.presets[presetIndex] : undefined;
+
+  async function save() {
+    if (readOnly || saving) return;
+    const errors = checks.diagnostics.filter((d) => d.severity === "error");
+    if (errors.length > 0) {
+      setMessage({ tone: "error", text: `Not saved: ${errors.length} error${errors.length > 1 ? "s" : ""} to fix first. ${errors[0].message}` });
+      return;
+    }
+    const sent = state.config;
+    setSaving(true);
+    setMessage({ tone: "info", text: "Saving…" });
+    try {
+      const res = await fetch(`/api/builds/${buildId}/config`, {
+        method: "PUT",
+        headers: { "Content-Type": "application/json", Accept: "application/json" },
+        body: JSON.stringify({ config: sent, version }),
+      });
+      const body = (await res.json().catch(() => null)) as { version?: number; diagnostics?: Diagnostic[]; error?: string } | null;
+      if (res.ok && typeof body?.version === "number") {
+        setVersion(body.version);
+        dispatch({ type: "saved", config: sent });
+        setMessage({ tone: "ok", text: `Saved as version ${body.version}.` });
+      } else if (res.status === 422 && Array.isArray(body?.diagnostics)) {
+        checks.accept(sent, body.diagnostics);
+        const errs = body.diagnostics.filter((d) => d.severity === "error");
+        setMessage({ tone: "error", text: `Not saved: the config has ${errs.length} error${errs.length === 1 ? "" : "s"}. ${errs[0]?.message ?? ""}` });
+      } else if (res.status === 409) {
+        setMessage({
+          tone: "error",
+          text: "Not saved: someone else saved this build after you opened it. Nothing was changed. Reload the page to see their version (your edits here are not kept on reload).",
+        });
+      } else {
+        setMessage({ tone: "error", text: `Not saved: ${body?.error ?? `the server answered ${res.status}`}.` });
+      }
+    } catch (e) {
+      setMessage({ tone: "error", text: `Not saved: the server could not be reached (${e instanceof Error ? e.message : String(e)}).` });
+    } finally {
+      setSaving(false);
+    }
+  }
+
+  // Undo / redo / save from anywhere on the page.
+  useEffect(() => {
+    if (readOnly) return;
+    const onKey = (e: KeyboardEvent) => {
+      if (!(e.ctrlKey || e.metaKey) || e.altKey) return;
+      const k = e.key.toLowerCase();
+      if (k === "z") {
+        e.preventDefault();
+        dispatch({ type: e.shiftKey ? "redo" : "undo" });
+      } else if (k === "y") {
+        e.preventDefault();
+        dispatch({ type: "redo" });
+      } else if (k === "s") {
+        e.preventDefault();
+        document.getElementById("looks-save")?.click();
+      }
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  }, [readOnly, dispatch]);
+
+  // Leaving with unsaved edits: the browser's own prompt for reloads and closing the tab, ours
+  // for links inside the app.
+  useEffect(() => {
+    if (!dirty) return;
+    const onUnload = (e: BeforeUnloadEvent) => {
+      e.preventDefault();
+      e.returnValue = "";
+    };
+    window.addEventListener("beforeunload", onUnload);
+    return () => window.removeEventListener("beforeunload", onUnload);
+  }, [dirty]);
+  const blocker = useBlocker(({ currentLocation, nextLocation }) => dirty && currentLocation.pathname !== nextLocation.pathname);
+
+  const errors = checks.diagnostics.filter((d) => d.severity === "error").length;
+  const warnings = checks.diagnostics.filter((d) => d.severity === "warning").length;
+
+  return (
+    <EditorContext.Provider value={context}>
+      <div className="space-y-4">
+        <div className="card sticky top-0 z-10 flex flex-wrap items-center gap-3 py-2" role="toolbar" aria-label="Editing">
+          {readOnly ? (
+            <p className="text-sm text-iron-300" data-testid="read-only">
+              Read-only: your role can look at these presets but not change them.
+            </p>
+          ) : (
+            <>
+              <button type="button" className="btn" onClick={() => dispatch({ type: "undo" })} disabled={!canUndo(state)} aria-keyshortcuts="Control+Z">
+                Undo
+              </button>
+              <button type="button" className="btn" onClick={() => dispatch({ type: "redo" })} disabled={!canRedo(state)} aria-keyshortcuts="Control+Shift+Z">
+                Redo
+              </button>
+              <button id="looks-save" type="button" className="btn btn-primary" onClick={save} disabled={saving || !dirty} aria-keyshortcuts="Control+S">
+                {saving ? "Saving…" : "Save"}
+              </button>
+              <span className="text-xs text-iron-400">{dirty ? "Unsaved changes" : "All changes saved"} · version {version}</span>
+            </>
+          )}
+          <span className="ml-auto text-xs" aria-live="polite" data-testid="check-status">
+            {checks.status === "checking" ? (
+              <span className="text-iron-400">Checking…</span>
+            ) : checks.status === "failed" ? (
+              <span className="text-signal-warning">{checks.problem}</span>
+            ) : errors + warnings === 0 ? (
+              <span className="text-signal-ok">No problems found</span>
+            ) : (
+              <span className={errors ? "text-signal-error" : "text-signal-warning"}>
+                {errors} error{errors === 1 ? "" : "s"}, {warnings} warning{warnings === 1 ? "" : "s"}
+              </span>
+            )}
+          </span>
+        </div>
+        {message ? (
+          <p role={message.tone === "error" ? "alert" : "status"} data-testid="save-message" className={message.tone === "ok" ? "text-signal-ok" : message.tone === "error" ? "text-signal-error" : "text-iron-300"}>
+            {message.text}
+          </p>
+        ) : null}
+        {state.notice ? (
+          <p role="status" className="flex items-center gap-3 text-sm text-iron-300">
+            {state.notice.text}
+            {state.notice.undoable ? (
+              <button type="button" className="btn" onClick={() => dispatch({ type: "undo" })}>
+                Undo
+              </button>
+            ) : null}
+            <button type="button" className="text-xs text-iron-400 underline" onClick={() => dispatch({ type: "notice/dismiss" })}>
+              Dismiss
+            </button>
+          </p>
+        ) : null}
+        {!checks.valid ? (
+          <p className="text-sm text-signal-warning" role="status">
+            Some values are not valid yet: the preview and the power figures show the last valid version until they are fixed.
+          </p>
+        ) : null}
+
+        <div className="grid gap-4 lg:grid-cols-[16rem_minmax(0,1fr)]">
+          <div className="space-y-4">
+            <PresetList config={state.config} selectedId={state.selectedPresetId} checks={index} dispatch={dispatch} />
+            <OtherChecks diagnostics={checks.diagnostics} config={state.config} dispatch={dispatch} />
+          </div>
+          <div className="min-w-0 space-y-4">
+            {preset ? (
+              <>
+                <PresetSettings key={preset.id} config={state.config} presetIndex={presetIndex} dispatch={dispatch} />
+                <LivePreview config={checks.lastValid} presetId={preset.id} />
+                <div className="grid gap-4 xl:grid-cols-3">
+                  {state.config.rig.channels.map((c) => (
+                    <LookColumn
+                      key={c.id}
+                      config={state.config}
+                      preset={preset}
+                      presetIndex={presetIndex}
+                      channel={c}
+                      checks={index}
+                      dispatch={dispatch}
+                      pictureUrl={
+                        state.saved.presets.some((p) => p.id === preset.id && p.looks[c.id])
+                          ? `/api/builds/${buildId}/looks.png?preset=${encodeURIComponent(preset.id)}&channel=${encodeURIComponent(c.id)}&v=${version}`
+                          : null
+                      }
+                    />
+                  ))}
+                </div>
+                <PowerPanel config={checks.lastValid} presetId={preset.id} />
+              </>
+            ) : (
+              <p className="card text-iron-300">{state.config.presets.length ? "Choose a preset." : "This build has no presets yet."}</p>
+            )}
+          </div>
+        </div>
+      </div>
+
+      {blocker.state === "blocked" ? (
+        <div role="alertdialog" aria-modal="true" aria-labelledby="leave-title" className="fixed inset-0 z-50 flex items-center justify-center bg-black/60 p-4">
+          <div className="card max-w-md space-y-3">
+            <h2 id="leave-title" className="text-lg">
+              Leave without saving?
+            </h2>
+            <p className="text-sm text-iron-300">The looks have changes that are not saved. Leaving drops them.</p>
+            <div className="flex gap-2">
+              <button type="button" className="btn" autoFocus onClick={() => blocker.reset?.()}>
+                Stay here
+              </button>
+              <button type="button" className="btn btn-danger" onClick={() => blocker.proceed?.()}>
+                Leave and drop changes
+              </button>
+            </div>
+          </div>
+        </div>
+      ) : null}
+    </EditorContext.Provider>
+  );
+}
+
+function PresetSettings({ config, presetIndex, dispatch }: { config: Config; presetIndex: number; dispatch: (a: EditorAction) => void }) {
+  const preset = config.presets[presetIndex];
+  return (
+    <EditorContext.Consumer>
+      {({ checks, readOnly }) => (
+        <section className="card space-y-3" aria-label={`Preset ${preset.name}`}>
+          <div className="grid items-start gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,1fr)_auto]">
+            <div data-path={presetPath(presetIndex, "name")}>
+              <label className="label" htmlFor="preset-name">
+                Preset name
+              </label>
+              <input
+                id="preset-name"
+                className="field"
+                value={preset.name}
+                readOnly={readOnly}
+                maxLength={80}
+                aria-invalid={checks.at(presetPath(presetIndex, "name")).some((d) => d.severity === "error") || undefined}
+                onChange={(e) => dispatch({ type: "preset/rename", presetId: preset.id, name: e.currentTarget.value })}
+              />
+              <DiagnosticList items={checks.at(presetPath(presetIndex, "name"))} />
+            </div>
+            <ChoiceInput
+              label="Font"
+              value={preset.fontId}
+              path={presetPath(presetIndex, "fontId")}
+              options={config.fonts.map((f) => f.id)}
+              labels={Object.fromEntries(config.fonts.map((f) => [f.id, `${f.name}${f.status === "received" ? "" : ` (${f.status})`}`]))}
+              onChange={(fontId) => dispatch({ type: "preset/font", presetId: preset.id, fontId })}
+            />
+            {readOnly ? null : (
+              <div className="flex gap-2 sm:pt-5">
+                <button type="button" className="btn" onClick={() => dispatch({ type: "preset/duplicate", presetId: preset.id })}>
+                  Duplicate
+                </button>
+                <button type="button" className="btn btn-danger" onClick={() => dispatch({ type: "preset/delete", presetId: preset.id })}>
+                  Delete preset
+                </button>
+              </div>
+            )}
+          </div>
+          <DiagnosticList items={checks.at(presetPath(presetIndex))} />
+        </section>
+      )}
+    </EditorContext.Consumer>
+  );
+}
+
+/** Diagnostics no control on screen shows: other presets, the rig, fonts and controls. */
+function OtherChecks({ diagnostics, config, dispatch }: { diagnostics: readonly Diagnostic[]; config: Config; dispatch: (a: EditorAction) => void }) {
+  if (diagnostics.length === 0) return null;
+  const where = (path: string) => {
+    const m = /^presets\[(\d+)\]/.exec(path);
+    const p = m ? config.presets[Number(m[1])] : undefined;
+    return p ? { label: p.name, id: p.id } : null;
+  };
+  return (
+    <section className="card space-y-2" aria-labelledby="all-checks">
+      <h2 id="all-checks" className="text-lg">
+        All checks {hasErrors(diagnostics) ? <span className="text-sm text-signal-error">(errors block saving)</span> : null}
+      </h2>
+      <ul className="max-h-80 space-y-2 overflow-auto text-xs">
+        {diagnostics.map((d, i) => {
+          const p = where(d.path);
+          return (
+            <li key={i} className={d.severity === "error" ? "text-signal-error" : d.severity === "warning" ? "text-signal-warning" : "text-signal-info"}>
+              {p ? (
+                <button type="button" className="mr-1 underline" onClick={() => dispatch({ type: "preset/select", presetId: p.id })}>
+                  {p.label}
+                </button>
+              ) : null}
+              {d.message} <span className="block font-mono text-iron-400">{d.path || "(whole config)"}</span>
+            </li>
+          );
+        })}
+      </ul>
+    </section>
+  );
+}
