@@ -12,6 +12,11 @@ export interface Parsed {
 }
 
 const MAX_ENTRIES = 256;
+const onClear: (() => void)[] = [];
+/** Lets the compiled-template cache be cleared together with the parse cache. */
+export function alsoClear(f: () => void): void {
+  onClear.push(f);
+}
 const entries = new Map<string, Parsed>();
 
 /** Tokenize and parse without the cache. */
@@ -51,7 +56,11 @@ export function parseCached(source: string, limits: Limits = DEFAULT_LIMITS): Pa
 export const templateCache = {
   get: (source: string): Parsed | undefined => entries.get(source),
   has: (source: string): boolean => entries.has(source),
-  clear: (): void => entries.clear(),
+  /** Clears parsed and compiled templates. */
+  clear: (): void => {
+    entries.clear();
+    onClear.forEach((f) => f());
+  },
   get size(): number {
     return entries.size;
   },

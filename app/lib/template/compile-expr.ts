@@ -5,7 +5,7 @@ import type { Expr } from "./ast";
 import { suggest } from "./errors";
 import { FilterError, show, type FilterDef, type InputKind } from "./filters";
 import { FILTERS } from "./filtertable";
-import { renderFail, report, type Ctx, type Env, type Ev } from "./scope";
+import { renderFail, report, type Env, type Ev } from "./scope";
 import { ANY, BOOL, describe, LOOP_FIELDS, NUM, STR, type Ty } from "./types";
 
 const hasOwn = Object.prototype.hasOwnProperty;
@@ -186,19 +186,24 @@ function compileBinary(env: Env, e: Extract<Expr, { k: "binary" }>): Compiled {
   if (op === "<" || op === "<=" || op === ">" || op === ">=") {
     if (L.ty.k !== "any" && R.ty.k !== "any" && (L.ty.k !== R.ty.k || (L.ty.k !== "num" && L.ty.k !== "str")))
       report(env, `'${op}' compares two numbers or two texts, not ${describe(L.ty)} and ${describe(R.ty)}`, e.from, e.to);
-    const cmp = (c: Ctx): number => {
-      const a = l(c);
-      const b = r(c);
-      if ((typeof a === "number" && typeof b === "number") || (typeof a === "string" && typeof b === "string")) return a < b ? -1 : a > b ? 1 : 0;
-      throw renderFail(`'${op}' compares two numbers or two texts, not ${show(a)} and ${show(b)}`, from, to);
+    const sign = op === "<" ? -1 : op === ">" ? 1 : 0;
+    const orEqual = op === "<=" || op === ">=";
+    const orSign = op === "<=" ? -1 : 1;
+    return {
+      ty: BOOL,
+      cSafe: true,
+      ev: (c) => {
+        const a = l(c);
+        const b = r(c);
+        if (!((typeof a === "number" && typeof b === "number") || (typeof a === "string" && typeof b === "string")))
+          throw renderFail(`'${op}' compares two numbers or two texts, not ${show(a)} and ${show(b)}`, from, to);
+        const d = a < b ? -1 : a > b ? 1 : 0;
+        return orEqual ? d === 0 || d === orSign : d === sign;
+      },
     };
-    const test = op === "<" ? (n: number) => n < 0 : op === "<=" ? (n: number) => n <= 0 : op === ">" ? (n: number) => n > 0 : (n: number) => n >= 0;
-    return { ty: BOOL, cSafe: true, ev: (c) => test(cmp(c)) };
   }
   expectNum(env, L.ty, `'${op}'`, e.left.from, e.left.to);
   expectNum(env, R.ty, `'${op}'`, e.right.from, e.right.to);
-  const calc =
-    op === "+" ? (a: number, b: number) => a + b : op === "-" ? (a: number, b: number) => a - b : op === "*" ? (a: number, b: number) => a * b : op === "/" ? (a: number, b: number) => a / b : (a: number, b: number) => a % b;
   return {
     ty: NUM,
     cSafe: true,
@@ -206,15 +211,34 @@ function compileBinary(env: Env, e: Extract<Expr, { k: "binary" }>): Compiled {
       const a = l(c);
       const b = r(c);
       if (typeof a !== "number" || typeof b !== "number") throw renderFail(`'${op}' needs two numbers, not ${show(a)} and ${show(b)}`, from, to);
-      const v = calc(a, b);
+      const v = arith(op, a, b);
       if (!Number.isFinite(v)) throw renderFail(`'${op}' gave ${v} (division by zero?)`, from, to);
       return v;
     },
   };
 }
 
+function arith(op: string, a: number, b: number): number {
+  switch (op) {
+    case "+":
+      return a + b;
+    case "-":
+      return a - b;
+    case "*":
+      return a * b;
+    case "/":
+      return a / b;
+    default:
+      return a % b;
+  }
+}
+
 function same(a: unknown, b: unknown): boolean {
   return a === b || ((a === null || a === undefined) && (b === null || b === undefined));
+}
+
+function wrapFilterError(err: unknown, name: string, from: number, to: number): unknown {
+  return err instanceof FilterError ? renderFail(`filter '${name}': ${err.message}`, from, to) : err;
 }
 
 function accepts(kind: InputKind, ty: Ty): boolean {
@@ -245,7 +269,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   const inp = input.ev;
   const [from, to] = span(env, e.nameFrom, e.nameTo);
   const argEvs = args.map((a) => a.ev);
-  const wrap = (err: unknown) => (err instanceof FilterError ? renderFail(`filter '${e.name}': ${err.message}`, from, to) : err);
+  const name = e.name;
   let ev: Ev;
   if (argEvs.length === 0) {
     const none: unknown[] = [];
@@ -253,7 +277,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
       try {
         return fn(inp(c), none, c);
       } catch (err) {
-        throw wrap(err);
+        throw wrapFilterError(err, name, from, to);
       }
     };
   } else if (argEvs.length === 1) {
@@ -263,7 +287,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
       try {
         return fn(inp(c), vs, c);
       } catch (err) {
-        throw wrap(err);
+        throw wrapFilterError(err, name, from, to);
       }
     };
   } else {
@@ -272,7 +296,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
       try {
         return fn(inp(c), vs, c);
       } catch (err) {
-        throw wrap(err);
+        throw wrapFilterError(err, name, from, to);
       }
     };
   }

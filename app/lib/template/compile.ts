@@ -1,7 +1,7 @@
 // The public face of the language: compile once (parse, check against the model's schema,
 // build closures), render many times as a pure function of config, metadata and template.
 import type { Config } from "../config/schema";
-import { parseCached } from "./cache";
+import { alsoClear, parseCached } from "./cache";
 import { compileBody } from "./compile-nodes";
 import { makeError, TemplateFailure, type TemplateError } from "./errors";
 import { DEFAULT_LIMITS, type Limits } from "./limits";
@@ -39,8 +39,33 @@ export type RenderResult = { ok: true; output: string } | { ok: false; errors: T
 const CONFIG_SLOT = 0;
 const META_SLOT = 1;
 
+// Compiled templates hold no per-render state, so one without partials or custom limits is
+// kept by source like its parse: a template version compiles once per process.
+const MAX_COMPILED = 128;
+const compiled = new Map<string, CompileResult>();
+alsoClear(() => compiled.clear());
+
+/** Forgets compiled templates (the parse cache is cleared separately). */
+export function clearCompiled(): void {
+  compiled.clear();
+}
+
 export function compileTemplate(source: string, opts: CompileOptions = {}): CompileResult {
   if (typeof source !== "string") return { ok: false, errors: [makeError("", "tokenize", "a template must be a string", 0)] };
+  const cacheable = opts.partials === undefined && opts.limits === undefined;
+  if (cacheable) {
+    const hit = compiled.get(source);
+    if (hit) return hit;
+  }
+  const result = compileUncached(source, opts);
+  if (cacheable) {
+    compiled.set(source, result);
+    if (compiled.size > MAX_COMPILED) compiled.delete(compiled.keys().next().value!);
+  }
+  return result;
+}
+
+function compileUncached(source: string, opts: CompileOptions): CompileResult {
   const limits: Limits = opts.limits ? { ...DEFAULT_LIMITS, ...opts.limits } : DEFAULT_LIMITS;
   const parsed = parseCached(source, limits);
   if (!parsed.ast) return { ok: false, errors: parsed.errors };
@@ -62,8 +87,8 @@ export function compileTemplate(source: string, opts: CompileOptions = {}): Comp
   const all = env.diags.map((d) => makeError(source, "check", d.message, d.from, d.to, d.severity));
   const errors = all.filter((d) => d.severity === "error");
   const warnings = all.filter((d) => d.severity === "warning");
-  if (errors.length) return { ok: false, errors: [...errors, ...warnings] };
-  return { ok: true, template: Object.freeze({ source, target: parsed.ast.target, run, slotCount: env.slots.n, limits }), warnings };
+  if (errors.length) return Object.freeze({ ok: false, errors: Object.freeze([...errors, ...warnings]) as TemplateError[] });
+  return Object.freeze({ ok: true, template: Object.freeze({ source, target: parsed.ast.target, run, slotCount: env.slots.n, limits }), warnings: Object.freeze(warnings) as TemplateError[] });
 }
 
 export function renderTemplate(template: CompiledTemplate, config: Config, meta: RenderMeta): RenderResult {

@@ -192,6 +192,12 @@ export function parse(pieces: Piece[], errors: TemplateFailure[], maxDepth = DEF
   return ast;
 }
 
+const OR = ["or"];
+const AND = ["and"];
+const CMP = ["==", "!=", "<", "<=", ">", ">="];
+const ADD = ["+", "-"];
+const MUL = ["*", "/", "%"];
+
 /** Expression parser over the tokens of one tag. */
 class Cursor {
   private nest = 0;
@@ -279,9 +285,13 @@ class Cursor {
       left = { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
     }
   }
-  private or = (): Expr => this.bin(this.and, ["or"]);
-  private and = (): Expr => this.bin(this.not, ["and"]);
-  private not = (): Expr => {
+  private or(): Expr {
+    return this.bin(() => this.and(), OR);
+  }
+  private and(): Expr {
+    return this.bin(() => this.not(), AND);
+  }
+  private not(): Expr {
     const t = this.toks[this.i];
     if (t && t.kind === "ident" && t.value === "not") {
       this.i++;
@@ -289,20 +299,24 @@ class Cursor {
       return { k: "unary", op: "not", arg, from: t.from, to: arg.to };
     }
     return this.cmp();
-  };
-  private cmp = (): Expr => {
+  }
+  private cmp(): Expr {
     const left = this.add();
     const t = this.toks[this.i];
-    if (t && t.kind === "op" && ["==", "!=", "<", "<=", ">", ">="].includes(t.value)) {
+    if (t && t.kind === "op" && CMP.includes(t.value)) {
       this.i++;
       const right = this.add();
       return { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
     }
     return left;
-  };
-  private add = (): Expr => this.bin(this.mul, ["+", "-"]);
-  private mul = (): Expr => this.bin(this.unary, ["*", "/", "%"]);
-  private unary = (): Expr => {
+  }
+  private add(): Expr {
+    return this.bin(() => this.mul(), ADD);
+  }
+  private mul(): Expr {
+    return this.bin(() => this.unary(), MUL);
+  }
+  private unary(): Expr {
     const t = this.toks[this.i];
     if (t && t.kind === "op" && t.value === "-") {
       this.i++;
@@ -310,7 +324,7 @@ class Cursor {
       return { k: "unary", op: "-", arg, from: t.from, to: arg.to };
     }
     return this.postfix();
-  };
+  }
   private postfix(): Expr {
     let e = this.primary();
     for (;;) {

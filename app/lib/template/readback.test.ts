@@ -173,7 +173,7 @@ describe("readHeader on random valid configs", () => {
       }),
       { numRuns: 150 },
     );
-  });
+  }, 60_000);
 
   it.skipIf(!hasCC)("renders headers the C compiler accepts (outside judge: cc -std=c11 -Wall -Werror)", () => {
     fc.assert(
@@ -182,5 +182,5 @@ describe("readHeader on random valid configs", () => {
       }),
       { numRuns: 12 },
     );
-  });
+  }, 120_000);
 });
