@@ -2,6 +2,8 @@
 // same way. A path is written the way a person would point at the value in the JSON, e.g.
 // presets[2].looks.chamber.layers[1].periodMs.
 
+import type { RuleCode } from "./rules/codes";
+
 export type Severity = "error" | "warning" | "info";
 
 export type Diagnostic = {
@@ -51,16 +53,16 @@ export function hasErrors(list: readonly Diagnostic[]): boolean {
   return list.some((d) => d.severity === "error");
 }
 
-/** Collects diagnostics for the semantic rules; one per validation run. */
+/** Collects diagnostics for the semantic rules; one per validation run. Codes must be catalogued. */
 export class DiagnosticSink {
   readonly list: Diagnostic[] = [];
-  error(code: string, path: string, message: string, hint: string): void {
+  error(code: RuleCode, path: string, message: string, hint: string): void {
     this.list.push({ severity: "error", code, path, message, hint });
   }
-  warning(code: string, path: string, message: string, hint: string): void {
+  warning(code: RuleCode, path: string, message: string, hint: string): void {
     this.list.push({ severity: "warning", code, path, message, hint });
   }
-  info(code: string, path: string, message: string, hint: string): void {
+  info(code: RuleCode, path: string, message: string, hint: string): void {
     this.list.push({ severity: "info", code, path, message, hint });
   }
 }

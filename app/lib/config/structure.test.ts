@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { demoConfig } from "./demo";
 import { formatPath, joinPath, keySegment } from "./diagnostics";
 import { newLayer } from "./layers";
+import { RULES } from "./rules/codes";
 import { MAX_STRUCTURE_DIAGNOSTICS } from "./structure";
 import { validate, validateConfig } from "./validate";
 
@@ -31,6 +32,12 @@ const ROWS: { code: string; path: string; trigger: (c: Loose) => void; says: Reg
 ];
 
 describe("structural diagnostics", () => {
+  it("covers every structural code in the catalogue except the two fallbacks", () => {
+    const tested = new Set([...ROWS.map((r) => r.code), "too-many-problems", "semantic-rules-skipped"]);
+    const listed = Object.entries(RULES).filter(([, r]) => r.area === "structure").map(([code]) => code);
+    expect(listed.filter((c) => !tested.has(c)).sort()).toEqual(["invalid-format", "invalid-value"]);
+  });
+
   it.each(ROWS)("$code at $path", ({ code, path, trigger, says }) => {
     const c = demoConfig() as Loose;
     trigger(c);
@@ -92,5 +99,24 @@ describe("paths", () => {
     expect(joinPath("presets[0]", "looks", "blade")).toBe("presets[0].looks.blade");
     expect(joinPath("rig.channels", 3)).toBe("rig.channels[3]");
     expect(keySegment("9-pixel")).toBe('["9-pixel"]');
+  });
+});
+
+describe("semantic rules after a structural failure", () => {
+  it("are skipped, with a note saying so", () => {
+    const c = demoConfig() as Loose;
+    c.rig.channels[0].pin = "two";
+    c.presets[0].fontId = "no-such-font";
+    const codes = validate(c).map((d) => d.code);
+    expect(codes).toContain("semantic-rules-skipped");
+    expect(codes).not.toContain("unknown-font");
+  });
+
+  it("run when the structure is right, without the note", () => {
+    const c = demoConfig();
+    c.presets[0].fontId = "no-such-font";
+    const codes = validate(c).map((d) => d.code);
+    expect(codes).not.toContain("semantic-rules-skipped");
+    expect(codes).toContain("unknown-font");
   });
 });

@@ -2,6 +2,7 @@
 // of the value. zod's own wording ("Too small: expected number to be >=1") stays out of sight.
 import type { z } from "zod";
 import { formatPath, type Diagnostic, type PathSegment } from "./diagnostics";
+import type { RuleCode } from "./rules/codes";
 
 /** Past this many structural problems, one summary stands in for the rest. */
 export const MAX_STRUCTURE_DIAGNOSTICS = 50;
@@ -49,7 +50,7 @@ function listChoices(values: readonly unknown[]): string {
 function one(issue: z.core.$ZodIssue, input: unknown, path: string): Diagnostic {
   const value = valueAt(input, issue.path);
   const where = path === "" ? "The config" : path;
-  const d = (code: string, message: string, hint: string): Diagnostic => ({ severity: "error", code, path, message, hint });
+  const d = (code: RuleCode, message: string, hint: string): Diagnostic => ({ severity: "error", code, path, message, hint });
   switch (issue.code) {
     case "invalid_type": {
       const expected = EXPECTED[issue.expected] ?? issue.expected;

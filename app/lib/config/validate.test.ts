@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { demoConfig } from "./demo";
 import { newLayer } from "./layers";
 import type { Config, Layer } from "./schema";
+import { RULES } from "./rules/codes";
 import { validate, validateConfig } from "./validate";
 
 type Row = { code: string; trigger: (c: Config) => void; pass?: (c: Config) => void };
@@ -169,10 +170,16 @@ describe("semantic rules", () => {
     expect(new Set(ROWS.map((r) => r.code)).size).toBe(ROWS.length);
   });
 
+  it("covers every semantic code in the catalogue", () => {
+    const semantic = Object.entries(RULES).filter(([, r]) => r.area !== "structure").map(([code]) => code);
+    expect(ROWS.map((r) => r.code).sort()).toEqual(semantic.sort());
+  });
+
   it.each(ROWS)("$code triggers", ({ code, trigger }) => {
     const { codes, all } = codesAfter(trigger);
     expect(codes).toContain(code);
     const d = all.find((x) => x.code === code)!;
+    expect(d.severity).toBe(RULES[code as keyof typeof RULES].severity);
     expect(d.message.length).toBeGreaterThan(10);
     expect(d.hint.length).toBeGreaterThan(5);
   });

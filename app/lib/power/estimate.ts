@@ -64,7 +64,9 @@ export function estimatedDrawSource(): ChannelDrawSource {
   const boundOf = (config: Config, preset: Preset, channelId: string, mode: Mode, lit: boolean): Bound | null => {
     if (config !== indexed) {
       indexed = config;
-      byId = new Map(config.rig.channels.map((c) => [c.id, c]));
+      // First channel per id, as the validator indexes them (duplicates are reported there).
+      byId = new Map();
+      for (const c of config.rig.channels) if (!byId.has(c.id)) byId.set(c.id, c);
     }
     if (preset !== current) {
       current = preset;

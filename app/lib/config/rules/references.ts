@@ -1,8 +1,9 @@
 // Everything that names something else must name something that exists, exactly once.
+import type { RuleCode } from "./codes";
 import type { RuleContext } from "./context";
 import { layerPath, lookPath } from "./context";
 
-function uniqueIds(ctx: RuleContext, items: readonly { id: string }[], base: string, what: string, code: string): void {
+function uniqueIds(ctx: RuleContext, items: readonly { id: string }[], base: string, what: string, code: RuleCode): void {
   const seen = new Map<string, number>();
   items.forEach((item, i) => {
     const first = seen.get(item.id);

@@ -2,9 +2,10 @@
 // standard: outside them an effect still runs but looks broken (a wipe too fast to see, a
 // breathe so slow it reads as a steady colour), so they are warnings. Zero or less is an error.
 import type { Layer } from "../schema";
+import type { RuleCode } from "./codes";
 import { pathOf, type LayerCheck } from "./context";
 
-type Range = { min: number; max: number; unit: string; code: string; what: string };
+type Range = { min: number; max: number; unit: string; code: RuleCode; what: string };
 
 export const TIMING_RANGES = {
   ignition: { min: 100, max: 5000, unit: "ms", code: "wipe-duration-out-of-range", what: "An ignition wipe" },
