@@ -3,7 +3,7 @@
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 
-const areas = ["config", "template", "effects", "preview"];
+const areas = ["config", "power", "template", "effects", "preview"];
 
 for (const area of areas) {
   const file = fileURLToPath(new URL(`./bench/${area}.ts`, import.meta.url));
