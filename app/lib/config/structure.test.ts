@@ -27,6 +27,7 @@ const ROWS: { code: string; path: string; trigger: (c: Loose) => void; says: Reg
   { code: "unknown-layer-kind", path: "presets[0].looks.blade.layers[1].kind", trigger: (c) => (c.presets[0].looks.blade.layers[1].kind = "sparkle"), says: /"sparkle", which is not a layer kind/ },
   { code: "unknown-choice", path: "presets[0].looks.blade.layers[0].blend", trigger: (c) => (c.presets[0].looks.blade.layers[0].blend = "overlay"), says: /"normal", "add", "multiply" or "screen"/ },
   { code: "unknown-choice", path: "controls[0].trigger.input", trigger: (c) => (c.controls[0].trigger.input = "joystick"), says: /"joystick"/ },
+  { code: "missing-field", path: "controls[0].trigger.state", trigger: (c) => delete c.controls[0].trigger.state, says: /is missing.*"lit", "unlit" or "any"/ },
   { code: "unknown-field", path: "rig.power.voltage", trigger: (c) => (c.rig.power.voltage = 5), says: /voltage/ },
   { code: "unknown-format", path: "format", trigger: (c) => (c.format = "something-else/2"), says: /not a Hiltbench config/ },
 ];

@@ -59,6 +59,7 @@ function one(issue: z.core.$ZodIssue, input: unknown, path: string): Diagnostic 
         return d("not-a-number", `${where} is ${show(value)}, which is not a usable number.`, "Check the calculation that produced it; JSON cannot carry NaN or Infinity either.");
       if (issue.expected === "int" && typeof value === "number")
         return d("not-whole-number", `${where} is ${value}, but it must be a whole number.`, `Round it, e.g. to ${Math.round(value)}.`);
+      if (path === "") return d("wrong-type", `The config should be an object, but it is ${kindOf(value)}.`, "Send one JSON object with format, rig, fonts, presets and controls.");
       return d("wrong-type", `${where} should be ${expected}, but it is ${kindOf(value)}${typeof value === "string" || typeof value === "number" ? ` (${show(value)})` : ""}.`, `Write it as ${expected}.`);
     }
     case "too_small":
@@ -85,6 +86,7 @@ function one(issue: z.core.$ZodIssue, input: unknown, path: string): Diagnostic 
     case "invalid_value": {
       if (issue.path.length === 1 && issue.path[0] === "format")
         return d("unknown-format", `This is not a Hiltbench config (format is ${show(value)}).`, `Set format to ${listChoices(issue.values)}.`);
+      if (value === undefined) return d("missing-field", `${where} is missing.`, `Add it: choose ${listChoices(issue.values)}.`);
       return d("unknown-choice", `${where} is ${show(value)}, which is not one of the choices.`, `Choose ${listChoices(issue.values)}.`);
     }
     case "invalid_union": {
