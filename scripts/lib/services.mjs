@@ -1,7 +1,8 @@
 // Set-up shared by `npm start` and `npm test`, written with Node's built-ins only because it
 // runs before the project's packages are installed.
 import { execFileSync, spawn, spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, readdirSync, statSync, chmodSync, rmSync } from "node:fs";
+import { createHash } from "node:crypto";
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync, chmodSync, rmSync } from "node:fs";
 import net from "node:net";
 import path from "node:path";
 
@@ -17,16 +18,15 @@ function run(cmd, args, opts = {}) {
   if (r.status !== 0) throw new Error(`${cmd} ${args.join(" ")} failed (exit ${r.status})`);
 }
 
-function newer(a, b) {
-  return existsSync(a) && (!existsSync(b) || statSync(a).mtimeMs > statSync(b).mtimeMs);
-}
-
-/** npm packages: install when node_modules is missing or older than the lock file. */
+/** npm packages: install when node_modules is missing or was installed from another lock file. */
 export function ensureNodeModules() {
-  const marker = path.join(root, "node_modules", ".package-lock.json");
-  if (existsSync(marker) && !newer(path.join(root, "package-lock.json"), marker)) return;
+  const lock = readFileSync(path.join(root, "package-lock.json"));
+  const want = createHash("sha256").update(lock).digest("hex");
+  const marker = path.join(root, "node_modules", ".hiltbench-lock-sha256");
+  if (existsSync(marker) && readFileSync(marker, "utf8").trim() === want) return;
   log("installing npm packages");
   run("npm", ["ci", "--no-audit", "--no-fund"], { env: { ...process.env, PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD: "1" } });
+  writeFileSync(marker, want);
 }
 
 function aptInstall(pkgs, why) {
