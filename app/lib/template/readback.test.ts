@@ -54,6 +54,20 @@ describe("readHeader", () => {
     expect(r.errors[0].column).toBe(lines[chLine].indexOf("HB_ROLE_CHAMBR") + 1);
   });
 
+  it("catches derived fields a hand edit forgot (counts and indices the firmware reads)", () => {
+    const lines = header(demoConfig()).split("\n");
+    const n = lines.findIndex((l) => l.startsWith("  [0] = { .preset = 0, .channel_id = \"blade\""));
+    lines[n] = lines[n].replace(".layer_count = 8", ".layer_count = 9");
+    const p = lines.findIndex((l) => l.includes('.font_id = "tidebreak"'));
+    lines[p] = lines[p].replace(".font = 2", ".font = 1");
+    const r = readHeader(lines.join("\n"));
+    expect(r.config).toBeNull();
+    expect(r.errors.map((e) => e.message)).toEqual([
+      "'.font' is 1 but the index of its font is 2",
+      "'.layer_count' is 9 but the number of layer entries pointing here is 8",
+    ]);
+  });
+
   it("checks values with the model's schema and points at the field", () => {
     const lines = header(demoConfig()).split("\n");
     const n = lines.findIndex((l) => l.includes('.id = "crystal"'));

@@ -21,22 +21,22 @@ const enumOf = (group: string, values: readonly string[]) => ({ group, values })
 const snakeUpper = (v: string) => v.replace(/[^A-Za-z0-9]+/g, "_").toUpperCase();
 const f = (key: string, kind: Kind) => ({ key, kind });
 
-const BOARD: Spec = { profile: f("profile", "str"), data_pins: f("dataPins", "numlist"), data_pin_count: null, input_pins: f("inputPins", "numlist"), input_pin_count: null, max_pixels_per_pin: f("maxPixelsPerPin", "num"), idle_milliamps: f("idleMilliamps", "num") };
+const BOARD: Spec = { profile: f("profile", "str"), data_pins: f("dataPins", "numlist"), data_pin_count: f("$dataPinCount", "num"), input_pins: f("inputPins", "numlist"), input_pin_count: f("$inputPinCount", "num"), max_pixels_per_pin: f("maxPixelsPerPin", "num"), idle_milliamps: f("idleMilliamps", "num") };
 const POWER: Spec = Object.fromEntries(
   ["cellCapacityMah", "cellNominalVolts", "cellMaxContinuousAmps", "wireGaugeAwg", "wireLengthMm", "brightnessCap", "ledMilliampsPerColor", "pixelIdleMilliamps"].map((k) => [snake(k), f(k, "num")]),
 );
 const SPEAKER: Spec = Object.fromEntries(["impedanceOhms", "ratedPowerWatts", "amplifierEfficiency"].map((k) => [snake(k), f(k, "num")]));
 const CHANNEL: Spec = { id: f("id", "str"), name: f("name", "str"), role: f("role", enumOf("ROLE", CHANNEL_ROLES)), pixels: f("pixels", "num"), parallel_strips: f("parallelStrips", "num"), pin: f("pin", "num"), color_order: f("colorOrder", enumOf("ORDER", COLOR_ORDERS)) };
 const BUTTON: Spec = { id: f("id", "str"), name: f("name", "str"), kind: f("kind", enumOf("BUTTON", ["activation", "auxiliary"])), pin: f("pin", "num") };
-const FONT: Spec = { id: f("id", "str"), name: f("name", "str"), folder: f("folder", "str"), status: f("status", enumOf("FONT", ["promised", "received", "invalid"])), cues: f("cues", { listOf: enumOf("CUE", CUES) }), cue_count: null };
-const PRESET: Spec = { id: f("id", "str"), name: f("name", "str"), font_id: f("fontId", "str"), font: null, first_look: null, look_count: null };
-const LOOK: Spec = { preset: f("preset", "num"), channel_id: f("channelId", "str"), channel: null, first_layer: null, layer_count: null };
+const FONT: Spec = { id: f("id", "str"), name: f("name", "str"), folder: f("folder", "str"), status: f("status", enumOf("FONT", ["promised", "received", "invalid"])), cues: f("cues", { listOf: enumOf("CUE", CUES) }), cue_count: f("$cueCount", "num") };
+const PRESET: Spec = { id: f("id", "str"), name: f("name", "str"), font_id: f("fontId", "str"), font: f("$font", "num"), first_look: f("$first", "num"), look_count: f("$count", "num") };
+const LOOK: Spec = { preset: f("preset", "num"), channel_id: f("channelId", "str"), channel: f("$channel", "num"), first_layer: f("$first", "num"), layer_count: f("$count", "num") };
 const EVENT = enumOf("EVENT", CONTROL_EVENTS);
 const LAYER: Spec = {
   look: f("look", "num"), kind: f("kind", enumOf("LAYER", LAYER_KINDS)), enabled: f("enabled", "bool"), opacity: f("opacity", "num"),
   blend: f("blend", enumOf("BLEND", BLEND_MODES)), when: f("when", enumOf("WHEN", ["always", "lit", "unlit"])),
   has_range: f("hasRange", "bool"), range_start: f("rangeStart", "num"), range_end: f("rangeEnd", "num"), color: f("color", "color"),
-  first_stop: null, stop_count: null, band_pixels: f("bandPixels", "num"), speed_pixels_per_second: f("speedPixelsPerSecond", "num"),
+  first_stop: f("$first", "num"), stop_count: f("$count", "num"), band_pixels: f("bandPixels", "num"), speed_pixels_per_second: f("speedPixelsPerSecond", "num"),
   direction: f("direction", enumOf("DIRECTION", ["to-tip", "to-base"])), period_ms: f("periodMs", "num"), floor: f("floor", "num"),
   ceiling: f("ceiling", "num"), amount: f("amount", "num"), rate_hz: f("rateHz", "num"), event: f("event", EVENT), position: f("position", "num"),
   width_pixels: f("widthPixels", "num"), decay_ms: f("decayMs", "num"), flicker: f("flicker", "num"), duration_ms: f("durationMs", "num"),
@@ -44,7 +44,7 @@ const LAYER: Spec = {
 };
 const STOP: Spec = { layer: f("layer", "num"), at: f("at", "num"), color: f("color", "color") };
 const CONTROL: Spec = {
-  event: f("event", EVENT), input: f("input", enumOf("INPUT", ["button", "motion"])), button_id: f("buttonId", "str"), button: null,
+  event: f("event", EVENT), input: f("input", enumOf("INPUT", ["button", "motion"])), button_id: f("buttonId", "str"), button: f("$button", "num"),
   gesture: f("gesture", enumOf("GESTURE", GESTURES)), motion: f("motion", enumOf("MOTION", MOTIONS)), state: f("state", enumOf("STATE", ["lit", "unlit", "any"])),
 };
 /** Fields each layer kind carries besides the common ones, in model order. */
@@ -58,7 +58,7 @@ function snake(k: string): string {
   return k.replace(/([a-z0-9])([A-Z])/g, "$1_$2").toLowerCase();
 }
 
-type Row = Record<string, unknown> & { $pos: Pos; $fields: Map<string, Pos> };
+type Row = Record<string, unknown> & { $pos: Pos; $fields: Map<string, Pos>; $names: Map<string, string> };
 
 class Reader {
   errors: ReadError[] = [];
@@ -66,7 +66,7 @@ class Reader {
     this.errors.push({ line: pos.line, column: pos.column, message });
   }
   struct(v: CVal, spec: Spec, what: string): Row {
-    const row = { $pos: v.pos, $fields: new Map() } as Row;
+    const row = { $pos: v.pos, $fields: new Map(), $names: new Map() } as Row;
     if (v.k !== "list") {
       this.err(v.pos, `${what} should be a { … } initializer`);
       return row;
@@ -84,6 +84,7 @@ class Reader {
       if (!s) continue;
       if (row.$fields.has(s.key)) this.err(item.pos, `'.${item.field}' is given twice in ${what}`);
       row.$fields.set(s.key, item.pos);
+      row.$names.set(s.key, item.field);
       row[s.key] = this.value(item.value, s.kind, `'.${item.field}'`);
     }
     return row;
@@ -180,7 +181,7 @@ export function readHeader(text: string): { config: Config | null; errors: ReadE
     const t = tables.get(name);
     if (!t) {
       r.err({ line: 1, column: 1 }, `'${name}' is missing`);
-      return { $pos: { line: 1, column: 1 }, $fields: new Map() } as Row;
+      return { $pos: { line: 1, column: 1 }, $fields: new Map(), $names: new Map() } as Row;
     }
     return r.struct(t, spec, what);
   };
@@ -269,6 +270,35 @@ export function readHeader(text: string): { config: Config | null; errors: ReadE
     presets: presetModels,
     controls: controlModels,
   };
+  // Derived fields are what a firmware reads; a hand edit that forgets one is an error here.
+  const same = (row: Row, key: string, actual: number, what: string) => {
+    if (row[key] !== undefined && row[key] !== actual) r.err(row.$fields.get(key) ?? row.$pos, `'.${row.$names.get(key)}' is ${String(row[key])} but ${what} is ${actual}`);
+  };
+  const span = (row: Row, members: number[], child: string) => {
+    if (row.$first === undefined && row.$count === undefined) return;
+    same(row, "$count", members.length, `the number of ${child} entries pointing here`);
+    if (members.length && members.some((m, i) => m !== members[0] + i)) r.err(row.$pos, `the ${child} entries of this one are not consecutive`);
+    else if (members.length) same(row, "$first", members[0], `the index of its first ${child}`);
+  };
+  // Only on an otherwise sound file, so one broken entry does not cascade into many.
+  if (r.errors.length === 0) checkDerived();
+  function checkDerived() {
+  same(board, "$dataPinCount", (board.dataPins as unknown[] | undefined)?.length ?? 0, "the number of data pins");
+  same(board, "$inputPinCount", (board.inputPins as unknown[] | undefined)?.length ?? 0, "the number of input pins");
+  fonts.forEach((row) => same(row, "$cueCount", (row.cues as unknown[] | undefined)?.length ?? 0, "the number of cues"));
+  const indexIn = (rows: Row[], id: unknown) => rows.findIndex((x) => x.id === id);
+  const pointing = (rows: Row[], key: string, target: number) => rows.flatMap((x, i) => (x[key] === target ? [i] : []));
+  presets.forEach((row, i) => {
+    same(row, "$font", indexIn(fonts, row.fontId), "the index of its font");
+    span(row, pointing(looks, "preset", i), "look");
+  });
+  looks.forEach((row, i) => {
+    same(row, "$channel", indexIn(channels, row.channelId), "the index of its channel");
+    span(row, pointing(layers, "look", i), "layer");
+  });
+  layers.forEach((row, i) => span(row, pointing(stops, "layer", i), "stop"));
+  controls.forEach((row) => row.input === "button" && same(row, "$button", indexIn(buttons, row.buttonId), "the index of its button"));
+  }
   if (r.errors.length) return { config: null, errors: sortErrors(r.errors) };
   const parsed = configSchema.safeParse(candidate);
   if (parsed.success) return { config: parsed.data, errors: [] };
