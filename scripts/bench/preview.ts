@@ -17,16 +17,18 @@ export async function run(): Promise<void> {
     console.log("(set PREVIEW_FPS_FILE to keep it outside test-results/, which Playwright empties on each run)");
     return;
   }
-  const data = JSON.parse(readFileSync(file, "utf8")) as { measuredAt: string; displayFps?: number; demo: Measured; heavy: Measured };
+  const data = JSON.parse(readFileSync(file, "utf8")) as { measuredAt: string; displayFps?: number; referenceFps?: number; demo: Measured; heavy: Measured };
   const display = data.displayFps ?? DISPLAY_FPS;
   const ageMin = (Date.now() - statSync(file).mtimeMs) / 60000;
   console.log(`measured ${data.measuredAt} (${ageMin.toFixed(0)} min ago) in headless Chromium, ${file}`);
+  const ref = data.referenceFps;
+  if (ref) console.log(`an empty page in the same browser: ${ref.toFixed(1)} fps = ${(ref / display).toFixed(2)}× the display rate (the ceiling here)`);
   for (const [name, m] of [
     ["demo looks", data.demo],
     ["200-layer blade look", data.heavy],
   ] as const) {
     console.log(
-      `preview, ${`${name} (${m.layersOnBlade} layers on the blade)`.padEnd(42)} ${m.fps.toFixed(1)} fps over ${m.seconds.toFixed(1)} s = ${(m.fps / display).toFixed(2)}× the ${display} fps display rate`,
+      `preview, ${`${name} (${m.layersOnBlade} layers on the blade)`.padEnd(42)} ${m.fps.toFixed(1)} fps over ${m.seconds.toFixed(1)} s = ${(m.fps / display).toFixed(2)}× the ${display} fps display rate${ref ? `, ${(m.fps / ref).toFixed(2)}× the empty page` : ""}`,
     );
   }
 }
