@@ -119,6 +119,38 @@ test("a builder edits a look with live checks, reorders, undoes, saves and finds
   }
 });
 
+test("presets move by drag, layers by keyboard, and looks copy and mirror across channels", async ({ page, signIn }) => {
+  await signIn("demo-builder");
+  await openKestrelLooks(page);
+  await page.getByTestId("preset").filter({ hasText: "Tidebreak" }).dragTo(page.getByTestId("preset").filter({ hasText: "Ashfall" }));
+  await expect.poll(() => presetOrder(page)).toEqual(["tidebreak", "ashfall", "glasswind", "emberdusk", "northlight"]);
+  await page.locator("#preset-ashfall").click();
+
+  // Alt+↓ on a layer moves it one place later in the stack, and the keyboard stays with it.
+  const blade = page.getByTestId("look-blade");
+  const kinds = () => blade.getByTestId("layer").evaluateAll((els) => els.map((e) => e.getAttribute("data-kind")));
+  expect((await kinds()).slice(0, 2)).toEqual(["fill", "shimmer"]);
+  await blade.getByRole("button", { name: /^Fill layer 1/ }).focus();
+  await page.keyboard.press("Alt+ArrowDown");
+  await expect.poll(kinds).toEqual(["shimmer", "fill", "spark", "spark", "hold", "hold", "wipe", "wipe"]);
+  await expect(page.locator("#layer-blade-1")).toBeFocused();
+
+  // The crystal repeats the chamber window; then the chamber's look is copied to the crystal.
+  const crystal = page.getByTestId("look-crystal");
+  await crystal.getByText("Copy or mirror this look").click();
+  await crystal.getByLabel("Mirror another channel").selectOption({ label: "Chamber window" });
+  await crystal.getByRole("button", { name: "Replace with mirror" }).click();
+  await expect(crystal.getByTestId("layer")).toHaveCount(1);
+  await expect(crystal.getByRole("button", { name: "Mirror layer 1: of Chamber window" })).toBeVisible();
+
+  const chamber = page.getByTestId("look-chamber");
+  await chamber.getByText("Copy or mirror this look").click();
+  await chamber.getByRole("checkbox", { name: "Crystal" }).check();
+  await chamber.getByRole("button", { name: "Copy look to 1 place" }).click();
+  await expect.poll(() => crystal.getByTestId("layer").evaluateAll((els) => els.map((e) => e.getAttribute("data-kind")))).toEqual(["breathe", "fill", "mirror"]);
+  await expect(page.getByText("Unsaved changes")).toBeVisible();
+});
+
 test("a config with errors is not saved, and the page says why", async ({ page, signIn, sql }) => {
   const kestrel = await keepKestrel(sql);
   try {
