@@ -11,6 +11,10 @@ import { ANY, BOOL, describe, LOOP_FIELDS, NUM, STR, type Ty } from "./types";
 const hasOwn = Object.prototype.hasOwnProperty;
 const PROTO_KEYS = new Set(Object.getOwnPropertyNames(Object.prototype).concat(["__proto__", "prototype", "constructor"]));
 
+// Passing a closure through a call keeps it anonymous, which keeps dev-time transforms that
+// name every function (tsx, vitest) from adding a property definition to each one.
+const anon = <T>(f: T): T => f;
+
 /** A plain-data read: objects only, own keys only for anything that could reach a prototype. */
 export function readKey(o: unknown, k: string): unknown {
   if (o === null || typeof o !== "object" || Array.isArray(o)) return undefined;
@@ -40,17 +44,17 @@ export function compileExpr(env: Env, e: Expr): Compiled {
     case "lit": {
       const v = e.value;
       const ty: Ty = v === null ? { k: "null" } : typeof v === "number" ? NUM : typeof v === "boolean" ? BOOL : STR;
-      return { ev: () => v, ty, cSafe: typeof v !== "string" };
+      return { ev: anon(() => v), ty, cSafe: typeof v !== "string" };
     }
     case "var": {
       const found = env.scope.lookup(e.name);
       if (!found) {
         const hint = suggest(e.name, env.scope.names());
         report(env, `unknown name '${e.name}'${hint ? ` — did you mean '${hint}'?` : ""} (the model is under 'config', build details under 'meta')`, e.from, e.to);
-        return { ev: () => undefined, ty: ANY, cSafe: false };
+        return { ev: anon(() => undefined), ty: ANY, cSafe: false };
       }
       const slot = found.slot;
-      return { ev: (c) => c.f[slot], ty: found.ty, cSafe: false };
+      return { ev: anon((c) => c.f[slot]), ty: found.ty, cSafe: false };
     }
     case "get":
       return compileGet(env, e);
@@ -67,29 +71,29 @@ export function compileExpr(env: Env, e: Expr): Compiled {
       return {
         ty,
         cSafe: false,
-        ev: (c) => {
+        ev: anon((c) => {
           const target = o(c);
           const kv = k(c);
           if (Array.isArray(target)) return typeof kv === "number" && Number.isInteger(kv) && kv >= 0 && kv < target.length ? target[kv] : undefined;
           if (typeof kv !== "string") throw renderFail(`an index must be text or a whole number, not ${show(kv)}`, from, to);
           return target !== null && typeof target === "object" && hasOwn.call(target, kv) ? (target as Record<string, unknown>)[kv] : undefined;
-        },
+        }),
       };
     }
     case "unary": {
       const arg = compileExpr(env, e.arg);
       const a = arg.ev;
-      if (e.op === "not") return { ev: (c) => !truthy(a(c)), ty: BOOL, cSafe: true };
+      if (e.op === "not") return { ev: anon((c) => !truthy(a(c))), ty: BOOL, cSafe: true };
       expectNum(env, arg.ty, "'-'", e.arg.from, e.arg.to);
       const [from, to] = span(env, e.from, e.to);
       return {
         ty: NUM,
         cSafe: true,
-        ev: (c) => {
+        ev: anon((c) => {
           const v = a(c);
           if (typeof v !== "number") throw renderFail(`'-' needs a number, not ${show(v)}`, from, to);
           return -v;
-        },
+        }),
       };
     }
     case "binary":
@@ -119,23 +123,23 @@ function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
   // Keys are fixed here, so only keys that could reach a prototype pay for the own-key check.
   if (keys.length === 1 && !PROTO_KEYS.has(keys[0])) {
     const k0 = keys[0];
-    ev = (c) => {
+    ev = anon((c) => {
       const o = r(c);
       return o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
-    };
+    });
   } else if (keys.length === 2 && !PROTO_KEYS.has(keys[0]) && !PROTO_KEYS.has(keys[1])) {
     const [k0, k1] = keys;
-    ev = (c) => {
+    ev = anon((c) => {
       const o = r(c);
       const m = o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
       return m !== null && typeof m === "object" && !Array.isArray(m) ? (m as Record<string, unknown>)[k1] : undefined;
-    };
+    });
   } else {
-    ev = (c) => {
+    ev = anon((c) => {
       let v = r(c);
       for (let i = 0; i < keys.length; i++) v = readKey(v, keys[i]);
       return v;
-    };
+    });
   }
   return { ev, ty, cSafe: false };
 }
@@ -179,10 +183,10 @@ function compileBinary(env: Env, e: Extract<Expr, { k: "binary" }>): Compiled {
   const r = R.ev;
   const op = e.op;
   const [from, to] = span(env, e.from, e.to);
-  if (op === "and") return { ty: BOOL, cSafe: true, ev: (c) => truthy(l(c)) && truthy(r(c)) };
-  if (op === "or") return { ty: BOOL, cSafe: true, ev: (c) => truthy(l(c)) || truthy(r(c)) };
-  if (op === "==") return { ty: BOOL, cSafe: true, ev: (c) => same(l(c), r(c)) };
-  if (op === "!=") return { ty: BOOL, cSafe: true, ev: (c) => !same(l(c), r(c)) };
+  if (op === "and") return { ty: BOOL, cSafe: true, ev: anon((c) => truthy(l(c)) && truthy(r(c))) };
+  if (op === "or") return { ty: BOOL, cSafe: true, ev: anon((c) => truthy(l(c)) || truthy(r(c))) };
+  if (op === "==") return { ty: BOOL, cSafe: true, ev: anon((c) => same(l(c), r(c))) };
+  if (op === "!=") return { ty: BOOL, cSafe: true, ev: anon((c) => !same(l(c), r(c))) };
   if (op === "<" || op === "<=" || op === ">" || op === ">=") {
     if (L.ty.k !== "any" && R.ty.k !== "any" && (L.ty.k !== R.ty.k || (L.ty.k !== "num" && L.ty.k !== "str")))
       report(env, `'${op}' compares two numbers or two texts, not ${describe(L.ty)} and ${describe(R.ty)}`, e.from, e.to);
@@ -192,14 +196,14 @@ function compileBinary(env: Env, e: Extract<Expr, { k: "binary" }>): Compiled {
     return {
       ty: BOOL,
       cSafe: true,
-      ev: (c) => {
+      ev: anon((c) => {
         const a = l(c);
         const b = r(c);
         if (!((typeof a === "number" && typeof b === "number") || (typeof a === "string" && typeof b === "string")))
           throw renderFail(`'${op}' compares two numbers or two texts, not ${show(a)} and ${show(b)}`, from, to);
         const d = a < b ? -1 : a > b ? 1 : 0;
         return orEqual ? d === 0 || d === orSign : d === sign;
-      },
+      }),
     };
   }
   expectNum(env, L.ty, `'${op}'`, e.left.from, e.left.to);
@@ -207,14 +211,14 @@ function compileBinary(env: Env, e: Extract<Expr, { k: "binary" }>): Compiled {
   return {
     ty: NUM,
     cSafe: true,
-    ev: (c) => {
+    ev: anon((c) => {
       const a = l(c);
       const b = r(c);
       if (typeof a !== "number" || typeof b !== "number") throw renderFail(`'${op}' needs two numbers, not ${show(a)} and ${show(b)}`, from, to);
       const v = arith(op, a, b);
       if (!Number.isFinite(v)) throw renderFail(`'${op}' gave ${v} (division by zero?)`, from, to);
       return v;
-    },
+    }),
   };
 }
 
@@ -258,7 +262,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   if (!def) {
     const hint = suggest(e.name, FILTERS.keys());
     report(env, `unknown filter '${e.name}'${hint ? ` — did you mean '${hint}'?` : ""}`, e.nameFrom, e.nameTo);
-    return { ev: () => undefined, ty: ANY, cSafe: false };
+    return { ev: anon(() => undefined), ty: ANY, cSafe: false };
   }
   if (args.length < def.min || args.length > def.max) {
     const want = def.min === def.max ? `${def.min}` : `${def.min} to ${def.max}`;
@@ -273,32 +277,32 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   let ev: Ev;
   if (argEvs.length === 0) {
     const none: unknown[] = [];
-    ev = (c) => {
+    ev = anon((c) => {
       try {
         return fn(inp(c), none, c);
       } catch (err) {
         throw wrapFilterError(err, name, from, to);
       }
-    };
+    });
   } else if (argEvs.length === 1) {
     const a0 = argEvs[0];
-    ev = (c) => {
+    ev = anon((c) => {
       const vs = [a0(c)];
       try {
         return fn(inp(c), vs, c);
       } catch (err) {
         throw wrapFilterError(err, name, from, to);
       }
-    };
+    });
   } else {
-    ev = (c) => {
+    ev = anon((c) => {
       const vs = argEvs.map((a) => a(c));
       try {
         return fn(inp(c), vs, c);
       } catch (err) {
         throw wrapFilterError(err, name, from, to);
       }
-    };
+    });
   }
   return { ev, ty: def.out(input.ty), cSafe: !!def.cSafe || (input.cSafe && def.out(input.ty).k !== "str") };
 }

@@ -20,18 +20,25 @@ export type Ev = (c: Ctx) => unknown;
 export type Run = (c: Ctx) => void;
 
 export class Scope {
-  readonly vars = new Map<string, { slot: number; ty: Ty }>();
+  // Most blocks bind nothing; their table is made on the first binding.
+  private table: Map<string, { slot: number; ty: Ty }> | null = null;
   constructor(readonly parent: Scope | null) {}
+  get vars(): Map<string, { slot: number; ty: Ty }> {
+    return (this.table ??= new Map());
+  }
+  own(name: string): { slot: number; ty: Ty } | undefined {
+    return this.table?.get(name);
+  }
   lookup(name: string): { slot: number; ty: Ty } | undefined {
     for (let s: Scope | null = this; s; s = s.parent) {
-      const v = s.vars.get(name);
+      const v = s.own(name);
       if (v) return v;
     }
     return undefined;
   }
   names(): string[] {
     const out: string[] = [];
-    for (let s: Scope | null = this; s; s = s.parent) out.push(...s.vars.keys());
+    for (let s: Scope | null = this; s; s = s.parent) if (s.table) out.push(...s.table.keys());
     return out;
   }
 }
@@ -82,7 +89,7 @@ export function renderFail(message: string, from: number, to: number): TemplateF
 }
 
 export function bind(env: Env, scope: Scope, name: string, ty: Ty): number {
-  const existing = scope.vars.get(name);
+  const existing = scope.own(name);
   if (existing) {
     existing.ty = existing.ty.k === ty.k ? ty : { k: "any" };
     return existing.slot;
