@@ -7,8 +7,8 @@ import { test, expect, signInRequest, buildIdByName, BASE_URL } from "./fixtures
 
 type Who = "anonymous" | "owner" | "builder" | "reviewer" | "client";
 const LOGINS: Record<Exclude<Who, "anonymous">, string> = { owner: "demo-owner", builder: "demo-builder", reviewer: "demo-reviewer", client: "client-one" };
-type Outcome = "ok" | "bad" | "403" | "404" | "login" | "401" | "redirect";
-type Case = { route: string; method: "GET" | "POST"; path: (ids: Ids) => string; form?: Record<string, string>; expect: Record<Who, Outcome> };
+type Outcome = "ok" | "bad" | "403" | "404" | "405" | "login" | "401" | "redirect";
+type Case = { route: string; method: "GET" | "POST" | "PUT"; path: (ids: Ids) => string; form?: Record<string, string>; json?: unknown; expect: Record<Who, Outcome> };
 type Ids = { kestrel: string; harrier: string };
 
 const all = (o: Outcome): Record<Who, Outcome> => ({ anonymous: o, owner: o, builder: o, reviewer: o, client: o });
@@ -40,6 +40,11 @@ const CASES: Case[] = [
   { route: "/api/builds/:buildId", method: "GET", path: (i) => `/api/builds/${i.harrier}`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.kestrel}/looks.png?preset=ashfall&channel=crystal`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.harrier}/looks.png?preset=glasswind&channel=crystal`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "/api/validate", method: "POST", path: () => "/api/validate", json: { notConfig: true }, expect: { ...all("bad"), anonymous: "401" } },
+  { route: "/api/validate", method: "GET", path: () => "/api/validate", expect: { ...all("405"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/config", method: "GET", path: (i) => `/api/builds/${i.kestrel}/config`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/config", method: "GET", path: (i) => `/api/builds/${i.harrier}/config`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "/api/builds/:buildId/config", method: "PUT", path: (i) => `/api/builds/${i.kestrel}/config`, json: { config: {} }, expect: staff("bad", "403", "401") },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 
@@ -66,7 +71,10 @@ for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who
     const failures: string[] = [];
     for (const c of CASES) {
       const url = c.path(ids);
-      const res = c.method === "GET" ? await api.get(url, { maxRedirects: 0 }) : await api.post(url, { form: c.form, maxRedirects: 0 });
+      const res =
+        c.method === "GET"
+          ? await api.get(url, { maxRedirects: 0 })
+          : await api.fetch(url, { method: c.method, ...(c.json !== undefined ? { data: c.json } : { form: c.form }), maxRedirects: 0 });
       const want = c.expect[who];
       if (!matches(want, res.status(), res.headers()["location"])) failures.push(`${c.method} ${url}: wanted ${want}, got ${res.status()}`);
     }

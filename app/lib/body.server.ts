@@ -1,0 +1,88 @@
+// Reading request bodies with a byte cap, so a huge upload is refused (413) after reading at most
+// the cap, never buffered whole; and JSON with a depth cap, so a pathological document becomes a
+// 400 with a message rather than a slow walk further down.
+import { fail } from "./http.server";
+
+/** Configs are a few tens of kilobytes; 2 MB leaves room for big preset lists. */
+export const MAX_CONFIG_BYTES = 2 * 1024 * 1024;
+/** A config nests about eight levels; anything far deeper is not a config. */
+export const MAX_JSON_DEPTH = 64;
+
+function megabytes(n: number): string {
+  return `${(n / (1024 * 1024)).toFixed(n % (1024 * 1024) === 0 ? 0 : 1)} MB`;
+}
+
+/** The body as bytes, or a 413 as soon as it passes `maxBytes` (by Content-Length or while reading). */
+export async function readBodyLimited(request: Request, maxBytes: number): Promise<Uint8Array> {
+  const tooBig = () => fail(413, `The request body is larger than ${megabytes(maxBytes)}; send a smaller config.`);
+  const declared = Number(request.headers.get("Content-Length"));
+  if (Number.isFinite(declared) && declared > maxBytes) tooBig();
+  if (!request.body) return new Uint8Array(0);
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > maxBytes) {
+      await reader.cancel().catch(() => {});
+      tooBig();
+    }
+    chunks.push(value);
+  }
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.byteLength;
+  }
+  return out;
+}
+
+/** Deepest nesting of arrays and objects, walked without recursion; stops early past `limit`. */
+export function jsonDepth(value: unknown, limit = Infinity): number {
+  let max = 0;
+  const stack: [unknown, number][] = [[value, 0]];
+  while (stack.length > 0) {
+    const [v, d] = stack.pop()!;
+    if (typeof v !== "object" || v === null) continue;
+    const depth = d + 1;
+    if (depth > max) max = depth;
+    if (max > limit) return max;
+    for (const child of Array.isArray(v) ? v : Object.values(v)) if (typeof child === "object" && child !== null) stack.push([child, depth]);
+  }
+  return max;
+}
+
+/** Parse JSON text, answering 400 with a specific message for anything that is not a usable document. */
+export function parseJsonText(text: string, what = "The request body"): unknown {
+  if (text.trim() === "") fail(400, `${what} is empty; send a JSON document.`);
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch (e) {
+    fail(400, `${what} is not valid JSON (${e instanceof Error ? e.message : String(e)}).`);
+  }
+  if (jsonDepth(value, MAX_JSON_DEPTH) > MAX_JSON_DEPTH) fail(400, `${what} nests deeper than ${MAX_JSON_DEPTH} levels; a config never does.`);
+  return value;
+}
+
+/** A JSON request body, capped at `maxBytes`. */
+export async function readJsonBody(request: Request, maxBytes = MAX_CONFIG_BYTES): Promise<unknown> {
+  const bytes = await readBodyLimited(request, maxBytes);
+  let text: string;
+  try {
+    text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
+  } catch {
+    fail(400, "The request body is not UTF-8 text; send a JSON document.");
+  }
+  return parseJsonText(text);
+}
+
+/** The JSON object's own field, or a 400 naming the field when the body is not an object with it. */
+export function requireField(body: unknown, field: string): unknown {
+  if (typeof body !== "object" || body === null || Array.isArray(body)) fail(400, `The body must be a JSON object with a "${field}" field.`);
+  if (!Object.hasOwn(body, field)) fail(400, `The body has no "${field}" field.`);
+  return (body as Record<string, unknown>)[field];
+}

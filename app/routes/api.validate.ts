@@ -1,0 +1,26 @@
+// POST /api/validate: the validator over a posted config, for scripts (bearer token) and the
+// app's own editors (session). A config with errors is still a 200: the diagnostics are the answer.
+import { readJsonBody, requireField } from "~/lib/body.server";
+import { powerModeFor } from "~/lib/config/power-mode";
+import { validateConfig } from "~/lib/config/validate";
+import { requireViewer } from "~/lib/auth.server";
+import { apiAnswer, fail, json } from "~/lib/http.server";
+import type { Route } from "./+types/api.validate";
+
+export function loader({ request }: Route.LoaderArgs) {
+  return apiAnswer(async () => {
+    await requireViewer(request, "use:api");
+    fail(405, 'Send the config with POST, as a JSON body { "config": ... }.');
+  });
+}
+
+export function action({ request }: Route.ActionArgs) {
+  return apiAnswer(async () => {
+    await requireViewer(request, "use:api");
+    if (request.method !== "POST") fail(405, 'Send the config with POST, as a JSON body { "config": ... }.');
+    const config = requireField(await readJsonBody(request), "config");
+    const powerMode = powerModeFor(config);
+    const { diagnostics, power } = validateConfig(config, { power: powerMode });
+    return json({ diagnostics, power, powerSource: power ? powerMode : null });
+  });
+}
