@@ -180,8 +180,11 @@ export function readInitializers(text: string): Map<string, CVal & { k: "list" }
     }
     throw new CReadError(`unexpected '${t.v}' in an initializer`, t.pos);
   };
+  let depth = 0;
   const list = (): CVal & { k: "list" } => {
     const open = toks[i];
+    // The header nests three levels at most; a deeper file is hand-made trouble, not a config.
+    if (++depth > 8) throw new CReadError("initializers are nested too deeply", open.pos);
     expect("{");
     const items: CItem[] = [];
     while (toks[i] && toks[i].v !== "}") {
@@ -206,6 +209,7 @@ export function readInitializers(text: string): Map<string, CVal & { k: "list" }
     }
     if (!toks[i]) throw new CReadError("this '{' is never closed", open.pos);
     expect("}");
+    depth--;
     return { k: "list", items, pos: open.pos };
   };
   while (i < toks.length) {

@@ -82,6 +82,8 @@ describe("readHeader", () => {
     expect(readHeader("static const hb_board_t hb_board = { .profile = \"x\" ").errors[0]).toMatchObject({ line: 1, message: "this '{' is never closed" });
     expect(readHeader("").errors[0].message).toBe("'hb_board' is missing");
     expect(readHeader("\u0000\u0001 binary \uFFFF").errors.length).toBeGreaterThan(0);
+    expect(readHeader("hb_board = " + "{".repeat(100000)).errors[0]).toMatchObject({ line: 1, column: 20, message: "initializers are nested too deeply" });
+    expect(readHeader("x".repeat(9 * 1024 * 1024)).errors[0].message).toMatch(/over the limit of 8388608/);
     expect(readHeader('hb_board = { .profile = "\\q" };').errors[0]).toMatchObject({ line: 1, column: 25, message: "unknown escape '\\q' in a string" });
   });
 });

@@ -12,6 +12,9 @@ export interface ReadError {
   message: string;
 }
 
+/** Far above any real header (the demo is about 27 KB), low enough to read quickly. */
+const MAX_HEADER = 8 * 1024 * 1024;
+
 type Row = Record<string, unknown> & { $pos: Pos; $fields: Map<string, Pos>; $names: Map<string, string> };
 
 class Reader {
@@ -123,6 +126,7 @@ function plain(row: Row, keys: string[]): Record<string, unknown> {
 
 export function readHeader(text: string): { config: Config | null; errors: ReadError[] } {
   if (typeof text !== "string") return { config: null, errors: [{ line: 1, column: 1, message: "the header must be text" }] };
+  if (text.length > MAX_HEADER) return { config: null, errors: [{ line: 1, column: 1, message: `the file is ${text.length} characters, over the limit of ${MAX_HEADER}` }] };
   let tables;
   try {
     tables = readInitializers(text);
