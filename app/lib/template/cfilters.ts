@@ -70,9 +70,8 @@ export function toCDouble(n: number): string {
 
 const colorRe = /^#([0-9a-fA-F]{6})$/;
 function needColor(v: unknown): string {
-  const m = typeof v === "string" ? colorRe.exec(v) : null;
-  if (!m) fail(`expected a colour written #rrggbb, not ${show(v)}`);
-  return m![1];
+  if (typeof v !== "string" || !colorRe.test(v)) fail(`expected a colour written #rrggbb, not ${show(v)}`);
+  return (v as string).slice(1);
 }
 
 const cStr = (t: Ty): Ty => ({ ...STR, maybe: "maybe" in t && t.maybe }) as Ty;

@@ -202,8 +202,8 @@ function compileUse(env: Env, n: Extract<Node, { k: "use" }>, from: number, to: 
   const body = compileBody(inner, bodyNodes);
   return (c) => {
     step(c, from, to);
-    const vals = argRuns.map((a) => a.ev(c));
-    for (let i = 0; i < argRuns.length; i++) c.f[argRuns[i].slot] = vals[i];
+    // Parameter slots are fresh and pieces never recurse, so arguments can land in place.
+    for (let i = 0; i < argRuns.length; i++) c.f[argRuns[i].slot] = argRuns[i].ev(c);
     body(c);
   };
 }
