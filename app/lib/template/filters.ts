@@ -73,6 +73,18 @@ function snakeCase(s: string): string {
   return r;
 }
 
+const upperMemo = new Map<string, string>();
+function upperCase(s: string): string {
+  if (s.length > 64) return s.toUpperCase();
+  let r = upperMemo.get(s);
+  if (r === undefined) {
+    r = s.toUpperCase();
+    if (upperMemo.size > 4096) upperMemo.clear();
+    upperMemo.set(s, r);
+  }
+  return r;
+}
+
 function words(s: string): string[] {
   return s
     .replace(/([a-z0-9])([A-Z])/g, "$1 $2")
@@ -89,7 +101,7 @@ function getField(item: unknown, key: string): unknown {
 const elem = (t: Ty): Ty => (t.k === "list" ? t.of : { k: "any" });
 
 const GENERAL: [string, FilterDef][] = [
-  ["upper", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => needStr(v, "the input").toUpperCase() }],
+  ["upper", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => upperCase(needStr(v, "the input")) }],
   ["lower", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => needStr(v, "the input").toLowerCase() }],
   ["snake", { min: 0, max: 0, input: "str", out: keepFree, fn: (v) => snakeCase(needStr(v, "the input")) }],
   ["text", { min: 0, max: 0, input: "any", out: keepFree, fn: (v) => toText(v) }],
