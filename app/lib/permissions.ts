@@ -10,13 +10,15 @@ export const PERMISSIONS = [
   "view:members",
   "manage:members",
   "use:api",
+  "view:templates", // the workshop's templates and their editor (read-only without edit:template)
+  "edit:template",
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
 const table: Record<Role, ReadonlySet<Permission>> = {
   owner: new Set(PERMISSIONS),
-  builder: new Set(["view:builds", "create:build", "edit:build", "archive:build", "view:members", "use:api"]),
-  reviewer: new Set(["view:builds", "view:members", "use:api"]),
+  builder: new Set(["view:builds", "create:build", "edit:build", "archive:build", "view:members", "use:api", "view:templates", "edit:template"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates"]),
   client: new Set(["view:builds", "use:api"]),
 };
 

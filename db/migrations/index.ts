@@ -2,7 +2,9 @@
 // same under tsx, Vitest and the Vite server build.
 import type { Migration } from "kysely";
 import * as m0001 from "./20261202_0001_foundation";
+import * as m0300 from "./20261202_0300_templates";
 
 export const migrations: Record<string, Migration> = {
   "20261202_0001_foundation": m0001,
+  "20261202_0300_templates": m0300,
 };

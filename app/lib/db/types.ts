@@ -55,6 +55,26 @@ export interface BuildsTable {
   archived_at: Date | null;
   created_at: Timestamp;
   updated_at: Timestamp;
+  /** The workshop template version the build renders with; null = the built-in generic header. */
+  pinned_template_id: Generated<string | null>;
+  pinned_template_version: Generated<number | null>;
+}
+
+export interface TemplatesTable {
+  id: Generated<string>;
+  workshop_id: string;
+  name: string;
+  created_by: string | null;
+  created_at: Timestamp;
+}
+
+/** Immutable: a new save is a new row. */
+export interface TemplateVersionsTable {
+  template_id: string;
+  version: number;
+  source: string;
+  created_by: string | null;
+  created_at: Timestamp;
 }
 
 export interface SessionsTable {
@@ -82,6 +102,8 @@ export interface Database {
   builds: BuildsTable;
   sessions: SessionsTable;
   api_tokens: ApiTokensTable;
+  templates: TemplatesTable;
+  template_versions: TemplateVersionsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
