@@ -15,9 +15,13 @@ export default [
       index("routes/builds.$buildId._index.tsx"),
       route("rig", "routes/builds.$buildId.rig.tsx"),
       route("looks", "routes/builds.$buildId.looks.tsx"),
+      route("render", "routes/builds.$buildId.render.tsx"),
     ]),
     route("workshop", "routes/workshop.tsx"),
     route("account", "routes/account.tsx"),
+    route("templates", "routes/templates._index.tsx"),
+    route("templates/reference", "routes/templates.reference.tsx"),
+    route("templates/:templateId", "routes/templates.$templateId.tsx"),
   ]),
 
   ...prefix("api", [
@@ -27,6 +31,8 @@ export default [
     route("builds/:buildId/looks.png", "routes/api.builds.$buildId.looks-png.ts"),
     route("builds/:buildId/config", "routes/api.builds.$buildId.config.ts"),
     route("validate", "routes/api.validate.ts"),
+    route("render", "routes/api.render.ts"),
+    route("builds/:buildId/render", "routes/api.builds.$buildId.render.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

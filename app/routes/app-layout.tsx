@@ -26,6 +26,11 @@ export default function AppLayout({ loaderData }: Route.ComponentProps) {
           <NavLink to="/builds" className={link} end={false}>
             Builds
           </NavLink>
+          {can(viewer.role, "view:templates") ? (
+            <NavLink to="/templates" className={link}>
+              Templates
+            </NavLink>
+          ) : null}
           {can(viewer.role, "view:members") ? (
             <NavLink to="/workshop" className={link}>
               Workshop

@@ -39,6 +39,9 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <NavLink to="looks" className={tab}>
           Looks
         </NavLink>
+        <NavLink to="render" className={tab}>
+          Render
+        </NavLink>
       </nav>
       <div className="mt-5">
         <Outlet />

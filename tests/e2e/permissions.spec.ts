@@ -45,6 +45,18 @@ const CASES: Case[] = [
   { route: "/api/builds/:buildId/config", method: "GET", path: (i) => `/api/builds/${i.kestrel}/config`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/config", method: "GET", path: (i) => `/api/builds/${i.harrier}/config`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/builds/:buildId/config", method: "PUT", path: (i) => `/api/builds/${i.kestrel}/config`, json: { config: {} }, expect: staff("bad", "403", "401") },
+  { route: "/templates", method: "GET", path: () => "/templates", expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/templates", method: "POST", path: () => "/templates", form: { name: "" }, expect: staff("bad", "403") },
+  { route: "/templates/reference", method: "GET", path: () => "/templates/reference", expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/templates/:templateId", method: "GET", path: () => "/templates/generic-header", expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/templates/:templateId", method: "POST", path: () => "/templates/generic-header", form: { source: "" }, expect: { ...all("403"), anonymous: "login" } },
+  { route: "/builds/:buildId/render", method: "GET", path: (i) => `/builds/${i.kestrel}/render`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/render", method: "GET", path: (i) => `/builds/${i.harrier}/render`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
+  { route: "/builds/:buildId/render", method: "POST", path: (i) => `/builds/${i.kestrel}/render`, form: { intent: "pin" }, expect: staff("bad", "403") },
+  { route: "/api/render", method: "POST", path: () => "/api/render", json: { template: { builtin: "generic-header" } }, expect: { ...all("bad"), anonymous: "401" } },
+  { route: "/api/render", method: "GET", path: () => "/api/render", expect: { ...all("405"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/render", method: "GET", path: (i) => `/api/builds/${i.kestrel}/render`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/render", method: "GET", path: (i) => `/api/builds/${i.harrier}/render?template=readable-copy`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 

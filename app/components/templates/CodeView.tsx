@@ -1,0 +1,64 @@
+// One CodeMirror wrapper for the template editor (editable, our language, lint) and the Render
+// view (read-only C or plain text). Diagnostics are pushed in from outside with setDiagnostics,
+// so the page that compiles the template owns them.
+import { cpp } from "@codemirror/lang-cpp";
+import { lintGutter, setDiagnostics, type Diagnostic } from "@codemirror/lint";
+import { EditorView } from "@codemirror/view";
+import CodeMirror, { type Extension } from "@uiw/react-codemirror";
+import { useEffect, useMemo, useRef } from "react";
+import { hbTemplateLanguage } from "~/lib/template/codemirror";
+
+export type CodeLanguage = "template" | "c" | "text";
+
+const theme = EditorView.theme(
+  {
+    "&": { backgroundColor: "var(--color-soot-900)", fontSize: "13px" },
+    ".cm-gutters": { backgroundColor: "var(--color-soot-900)", borderRight: "1px solid var(--color-soot-700)" },
+    ".cm-content": { fontFamily: "ui-monospace, SFMono-Regular, Menlo, monospace" },
+  },
+  { dark: true },
+);
+
+export function CodeView(props: {
+  value: string;
+  language: CodeLanguage;
+  readOnly?: boolean;
+  onChange?: (value: string) => void;
+  diagnostics?: Diagnostic[];
+  height?: string;
+  label: string;
+  testId?: string;
+}) {
+  const { value, language, readOnly = false, onChange, diagnostics, height = "32rem", label, testId } = props;
+  const view = useRef<EditorView | null>(null);
+  const extensions = useMemo<Extension[]>(() => {
+    const ext: Extension[] = [theme, EditorView.contentAttributes.of({ "aria-label": label })];
+    if (language === "template") ext.push(hbTemplateLanguage(), lintGutter());
+    if (language === "c") ext.push(cpp());
+    return ext;
+  }, [language, label]);
+
+  useEffect(() => {
+    const v = view.current;
+    if (v && diagnostics) v.dispatch(setDiagnostics(v.state, diagnostics.filter((d) => d.to <= v.state.doc.length)));
+  }, [diagnostics]);
+
+  return (
+    <div className="overflow-hidden rounded-md border border-soot-600" data-testid={testId}>
+      <CodeMirror
+        value={value}
+        height={height}
+        theme="dark"
+        editable={!readOnly}
+        readOnly={readOnly}
+        extensions={extensions}
+        onChange={onChange}
+        basicSetup={{ foldGutter: false, highlightActiveLine: !readOnly, autocompletion: false }}
+        onCreateEditor={(v) => {
+          view.current = v;
+          if (diagnostics) v.dispatch(setDiagnostics(v.state, diagnostics));
+        }}
+      />
+    </div>
+  );
+}

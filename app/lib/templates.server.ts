@@ -1,0 +1,49 @@
+// Which template a request means (a built-in by name, a workshop template by id and version,
+// or posted source) and rendering a build through it. Failures are 4xx with a message.
+import type { Viewer } from "./auth.server";
+import { db } from "./db.server";
+import { fail } from "./http.server";
+import { BUILTIN_TEMPLATES, type Limits } from "./template";
+import { BUILTIN_VERSION, compileAndRender, isBuiltinName, metaForBuild, type RenderOutcome } from "./template-render";
+import { getTemplateVersion, latestSources } from "./repo/templates.server";
+import { isUuid } from "./repo/builds.server";
+
+export type ResolvedTemplate = { kind: "builtin" | "workshop" | "source"; id: string | null; name: string; version: number; source: string };
+
+/** A template reference: a built-in's name or a workshop template's id (latest version unless given). */
+export async function resolveTemplate(v: Viewer, ref: string, version?: number): Promise<ResolvedTemplate> {
+  if (isBuiltinName(ref)) return { kind: "builtin", id: null, name: ref, version: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] };
+  if (!isUuid(ref)) fail(404, `No template '${ref.slice(0, 80)}': use a built-in (${Object.keys(BUILTIN_TEMPLATES).join(", ")}) or a template id of your workshop.`);
+  const row = await getTemplateVersion(db(), v.workshop.id, ref, version);
+  if (!row) fail(404, version === undefined ? "No template with this id in your workshop." : `This template has no version ${version}.`);
+  return { kind: "workshop", id: row.id, name: row.name, version: row.version, source: row.source };
+}
+
+/** The template a build renders with when none is asked for: its pin, or the generic header. */
+export async function pinnedTemplate(v: Viewer, b: { pinned_template_id: string | null; pinned_template_version: number | null }): Promise<ResolvedTemplate> {
+  if (b.pinned_template_id && b.pinned_template_version !== null) return resolveTemplate(v, b.pinned_template_id, b.pinned_template_version);
+  return resolveTemplate(v, "generic-header");
+}
+
+/** API renders get a shorter clock than the editor: a runaway template costs a request at most this. */
+export const API_LIMITS: Partial<Limits> = { maxMillis: 500 };
+
+export async function renderBuildWith(
+  v: Viewer,
+  b: { name: string; client_name: string; updated_at: Date; config_version: number; config: unknown },
+  t: ResolvedTemplate,
+  limits?: Partial<Limits>,
+): Promise<RenderOutcome> {
+  const partials = await latestSources(db(), v.workshop.id);
+  return compileAndRender(t.source, b.config as never, metaForBuild(b, t), { partials, limits });
+}
+
+/** A render failure as the API's error list, with the limit named when a budget stopped it. */
+export function apiErrors(r: Extract<RenderOutcome, { ok: false }>, limits: Partial<Limits> = {}) {
+  return r.errors.map((e) => ({
+    stage: e.stage,
+    message: e.message === "rendering took longer than the time limit" && limits.maxMillis ? `rendering took longer than the time limit of ${limits.maxMillis} ms` : e.message,
+    line: e.line,
+    column: e.column,
+  }));
+}

@@ -1,0 +1,220 @@
+// One template: the source in an editor with our language's highlighting, live diagnostics and
+// a live preview rendered in the browser against a build's config. Saving stores a new version
+// (only a source that compiles); built-ins and readers without edit:template see it read-only.
+import type { Diagnostic as CmDiagnostic } from "@codemirror/lint";
+import { useEffect, useMemo, useState } from "react";
+import { data, Form, Link, useFetcher, useSubmit } from "react-router";
+import { CodeView } from "~/components/templates/CodeView";
+import { requireViewer } from "~/lib/auth.server";
+import { scopeFor } from "~/lib/build-access.server";
+import type { Config } from "~/lib/config/schema";
+import { db } from "~/lib/db.server";
+import { fail } from "~/lib/http.server";
+import { can } from "~/lib/permissions";
+import { getBuild, listBuilds } from "~/lib/repo/builds.server";
+import { getTemplate, getTemplateVersion, latestSources, listVersions, saveTemplateVersion } from "~/lib/repo/templates.server";
+import { BUILTIN_TEMPLATES, compileTemplate, type TemplateError } from "~/lib/template";
+import { BUILTIN_VERSION, compileAndRender, isBuiltinName, metaForBuild, partialsFrom } from "~/lib/template-render";
+import type { Route } from "./+types/templates.$templateId";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.template.name ?? "Template"} · Templates · Hiltbench` }];
+
+/** A template's source is at most 256 K characters; the form around it stays under 1 MB. */
+const MAX_SAVE_BYTES = 1024 * 1024;
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const v = await requireViewer(request, "view:templates");
+  const url = new URL(request.url);
+  const ref = params.templateId;
+  let template: { id: string; name: string; kind: "builtin" | "workshop"; version: number; latest: number; source: string };
+  let versions: { version: number; createdAt: string; author: string | null }[] = [];
+  if (isBuiltinName(ref)) {
+    template = { id: ref, name: ref, kind: "builtin", version: BUILTIN_VERSION, latest: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] };
+  } else {
+    const t = await getTemplate(db(), v.workshop.id, ref);
+    if (!t) fail(404, "No template with this id in your workshop.");
+    const asked = url.searchParams.get("version");
+    const n = asked === null ? undefined : Number(asked);
+    if (n !== undefined && (!Number.isInteger(n) || n < 1)) fail(400, "'version' must be a whole number from 1.");
+    const row = await getTemplateVersion(db(), v.workshop.id, t.id, n);
+    if (!row) fail(404, `This template has no version ${n}.`);
+    const all = await listVersions(db(), v.workshop.id, t.id);
+    versions = all.map((x) => ({ version: x.version, createdAt: x.created_at.toISOString(), author: x.author }));
+    template = { id: t.id, name: t.name, kind: "workshop", version: row.version, latest: all[0]?.version ?? row.version, source: row.source };
+  }
+  const builds = (await listBuilds(db(), scopeFor(v), { sort: "name", dir: "asc", page: 1, perPage: 100 })).rows.map((b) => ({ id: b.id, name: b.name }));
+  const buildId = url.searchParams.get("build") ?? builds[0]?.id;
+  const b = buildId ? await getBuild(db(), scopeFor(v), buildId) : undefined;
+  if (buildId && !b) fail(404, "No build with this id in your workshop.");
+  return {
+    template,
+    versions,
+    partials: await latestSources(db(), v.workshop.id),
+    builds,
+    build: b ? { id: b.id, name: b.name, client_name: b.client_name, updated_at: b.updated_at.toISOString(), config_version: b.config_version, config: b.config as Config } : null,
+    canEdit: template.kind === "workshop" && can(v.role, "edit:template"),
+  };
+}
+
+type SaveAnswer = { ok: true; version: number } | { ok: false; message: string; errors?: TemplateError[] };
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const v = await requireViewer(request, "edit:template");
+  if (isBuiltinName(params.templateId)) fail(403, "Built-in templates are read-only; create a template from one to change it.");
+  const t = await getTemplate(db(), v.workshop.id, params.templateId);
+  if (!t) fail(404, "No template with this id in your workshop.");
+  const declared = Number(request.headers.get("Content-Length"));
+  if (Number.isFinite(declared) && declared > MAX_SAVE_BYTES) fail(413, "The template is larger than 1 MB; nothing was saved.");
+  const form = await request.formData();
+  const source = form.get("source");
+  const latest = Number(form.get("latest"));
+  if (typeof source !== "string") return data<SaveAnswer>({ ok: false, message: "The form has no template source." }, { status: 400 });
+  if (!Number.isInteger(latest) || latest < 1) return data<SaveAnswer>({ ok: false, message: "The form must say which version the editor was opened at." }, { status: 400 });
+  const partials = await latestSources(db(), v.workshop.id);
+  const compiled = compileTemplate(source, { partials: partialsFrom(partials) });
+  if (!compiled.ok) {
+    const errors = compiled.errors.filter((e) => e.severity === "error");
+    return data<SaveAnswer>({ ok: false, message: `The template has ${errors.length} error${errors.length === 1 ? "" : "s"}; nothing was saved.`, errors }, { status: 422 });
+  }
+  const r = await saveTemplateVersion(db(), v.workshop.id, t.id, v.user.id, source, latest);
+  if (r.kind === "missing") fail(404, "No template with this id in your workshop.");
+  if (r.kind === "stale")
+    return data<SaveAnswer>({ ok: false, message: `Someone saved version ${r.latest} since you opened version ${latest}; nothing was saved. Reload to see it and reapply your change.` }, { status: 409 });
+  return data<SaveAnswer>({ ok: true, version: r.version });
+}
+
+function toCm(errors: TemplateError[]): CmDiagnostic[] {
+  return errors.map((e) => ({ from: e.from, to: e.to, severity: e.severity, message: e.message, source: e.stage }));
+}
+
+/** The value, once it has stopped changing for `ms`. */
+function useDebounced<T>(value: T, ms: number): T {
+  const [v, setV] = useState(value);
+  useEffect(() => {
+    const t = setTimeout(() => setV(value), ms);
+    return () => clearTimeout(t);
+  }, [value, ms]);
+  return v;
+}
+
+export default function TemplateEditorPage({ loaderData }: Route.ComponentProps) {
+  const { template, versions, partials, builds, build, canEdit } = loaderData;
+  const [source, setSource] = useState(template.source);
+  // A different template or version loaded: start from its source.
+  useEffect(() => setSource(template.source), [template.id, template.version, template.source]);
+  const settled = useDebounced(source, 120);
+  const outcome = useMemo(() => {
+    if (!build) return null;
+    return compileAndRender(settled, build.config, metaForBuild(build, { name: template.name, version: template.latest }), { partials });
+  }, [settled, build, partials, template.name, template.latest]);
+  const problems = outcome ? (outcome.ok ? outcome.warnings : [...outcome.errors, ...outcome.warnings]) : [];
+  const diagnostics = useMemo(() => toCm(problems), [outcome]); // eslint-disable-line react-hooks/exhaustive-deps
+  const save = useFetcher<SaveAnswer>();
+  const submit = useSubmit();
+  const dirty = source !== template.source;
+  const answer = save.data;
+  const viewingOld = template.kind === "workshop" && template.version !== template.latest;
+
+  return (
+    <div className="space-y-4">
+      <p className="text-sm">
+        <Link to="/templates">← Templates</Link> · <Link to="/templates/reference">Language reference</Link>
+      </p>
+      <div className="flex flex-wrap items-baseline gap-3">
+        <h1 className="font-mono">{template.name}</h1>
+        <span className="rounded bg-soot-700 px-2 py-0.5 text-xs" data-testid="template-version">
+          {template.kind === "builtin" ? "built-in, read-only" : `version ${template.version}${viewingOld ? ` (latest is ${template.latest})` : ""}`}
+        </span>
+        {template.kind === "workshop" && !canEdit ? <span className="text-sm text-iron-400">Read-only for your role.</span> : null}
+      </div>
+
+      <div className="flex flex-wrap items-end gap-4">
+        <Form method="get" className="flex items-end gap-2" onChange={(e) => submit(e.currentTarget, { preventScrollReset: true, replace: true })}>
+          {viewingOld ? <input type="hidden" name="version" value={template.version} /> : null}
+          <div>
+            <label className="label" htmlFor="preview-build">
+              Preview with build
+            </label>
+            <select id="preview-build" name="build" className="field w-56" defaultValue={build?.id}>
+              {builds.map((b) => (
+                <option key={b.id} value={b.id}>
+                  {b.name}
+                </option>
+              ))}
+            </select>
+          </div>
+          <noscript>
+            <button className="btn" type="submit">
+              Show
+            </button>
+          </noscript>
+        </Form>
+        {canEdit ? (
+          <save.Form method="post" className="flex items-center gap-3">
+            <input type="hidden" name="source" value={source} />
+            <input type="hidden" name="latest" value={template.latest} />
+            <button className="btn btn-primary" type="submit" disabled={save.state !== "idle" || (!dirty && !viewingOld)}>
+              Save as version {template.latest + 1}
+            </button>
+            <span role="status" className="text-sm" data-testid="save-status">
+              {save.state !== "idle" ? "Saving…" : answer?.ok ? `Saved version ${answer.version}.` : answer ? <span className="text-signal-error">{answer.message}</span> : dirty ? "Unsaved changes" : ""}
+            </span>
+          </save.Form>
+        ) : null}
+        {versions.length > 1 ? (
+          <nav aria-label="Versions" className="flex flex-wrap items-center gap-2 text-sm">
+            <span className="text-iron-400">Versions:</span>
+            {versions.map((x) => (
+              <Link key={x.version} to={`?version=${x.version}${build ? `&build=${build.id}` : ""}`} aria-current={x.version === template.version ? "page" : undefined} title={`${x.createdAt.slice(0, 16).replace("T", " ")} UTC${x.author ? ` by ${x.author}` : ""}`}>
+                v{x.version}
+              </Link>
+            ))}
+          </nav>
+        ) : null}
+      </div>
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <section aria-labelledby="source-h" className="min-w-0">
+          <h2 id="source-h" className="mb-2 text-base">
+            Source
+          </h2>
+          <CodeView value={source} language="template" readOnly={!canEdit} onChange={setSource} diagnostics={diagnostics} label="Template source" testId="template-editor" />
+          <div className="mt-2" aria-live="polite">
+            {problems.length === 0 ? (
+              <p className="text-sm text-signal-ok" data-testid="problems-none">
+                No problems.
+              </p>
+            ) : (
+              <ul aria-label="Problems" className="space-y-1 text-sm" data-testid="problems">
+                {problems.map((p, i) => (
+                  <li key={i} className={p.severity === "error" ? "text-signal-error" : "text-signal-warning"}>
+                    <span className="font-mono">
+                      {p.line}:{p.column}
+                    </span>{" "}
+                    {p.severity} ({p.stage}): {p.message}
+                  </li>
+                ))}
+              </ul>
+            )}
+          </div>
+        </section>
+        <section aria-labelledby="preview-h" className="min-w-0">
+          <h2 id="preview-h" className="mb-2 text-base">
+            Preview {build ? <span className="font-normal text-iron-400">with {build.name}</span> : null}
+          </h2>
+          {!build ? (
+            <p className="text-iron-400">Your workshop has no builds to preview with.</p>
+          ) : outcome?.ok ? (
+            <pre className="h-[32rem] overflow-auto rounded-md border border-soot-600 bg-soot-900 p-3 font-mono text-xs" data-testid="preview" tabIndex={0} aria-label="Rendered preview">
+              {outcome.output}
+            </pre>
+          ) : (
+            <p className="rounded-md border border-signal-error/50 p-3 text-sm text-signal-error" data-testid="preview-failed">
+              The template does not render yet; fix the problems on the left.
+            </p>
+          )}
+        </section>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,178 @@
+// The workshop's templates: the built-ins (read-only) and the workshop's own, and a form to
+// start a new one from a copy of any of them.
+import { data, Form, Link, redirect, useActionData, useNavigation } from "react-router";
+import { z } from "zod";
+import { requireViewer } from "~/lib/auth.server";
+import { db } from "~/lib/db.server";
+import { can } from "~/lib/permissions";
+import { createTemplate, getTemplateVersion, listTemplates } from "~/lib/repo/templates.server";
+import { BUILTIN_TEMPLATES } from "~/lib/template";
+import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
+import type { Route } from "./+types/templates._index";
+
+export const meta: Route.MetaFunction = () => [{ title: "Templates · Hiltbench" }];
+
+const BUILTIN_NOTES: Record<string, string> = {
+  "generic-header": "Hiltbench's C header; reads back into the model. Builds use it unless they pin another.",
+  "readable-copy": "The plain-text summary that goes on the card beside the config.",
+  "config-json": "The config model as JSON, for scripts.",
+};
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const v = await requireViewer(request, "view:templates");
+  const mine = await listTemplates(db(), v.workshop.id);
+  return {
+    builtins: BUILTIN_NAMES.map((name) => ({ name, note: BUILTIN_NOTES[name] ?? "", lines: BUILTIN_TEMPLATES[name].split("\n").length })),
+    templates: mine.map((t) => ({ id: t.id, name: t.name, latest: t.latest, updatedAt: t.updatedAt.toISOString() })),
+    canEdit: can(v.role, "edit:template"),
+  };
+}
+
+const NewTemplate = z.object({
+  name: z
+    .string()
+    .trim()
+    .min(1, "Give the template a name.")
+    .max(60, "At most 60 characters.")
+    .regex(/^[a-z0-9][a-z0-9_-]*$/, "Lower-case letters, digits, - and _ only (other templates use it by this name)."),
+  from: z.string().min(1, "Choose what to start from."),
+});
+
+type ActionAnswer = { fieldErrors: Partial<Record<"name" | "from", string>>; message?: string };
+
+export async function action({ request }: Route.ActionArgs) {
+  const v = await requireViewer(request, "edit:template");
+  const form = await request.formData();
+  const parsed = NewTemplate.safeParse({ name: form.get("name") ?? "", from: form.get("from") ?? "" });
+  if (!parsed.success) {
+    const fieldErrors: ActionAnswer["fieldErrors"] = {};
+    for (const issue of parsed.error.issues) fieldErrors[issue.path[0] as "name" | "from"] ??= issue.message;
+    return data<ActionAnswer>({ fieldErrors }, { status: 400 });
+  }
+  const { name, from } = parsed.data;
+  if (isBuiltinName(name)) return data<ActionAnswer>({ fieldErrors: { name: `'${name}' is a built-in template's name; choose another.` } }, { status: 400 });
+  let source: string;
+  if (isBuiltinName(from)) source = BUILTIN_TEMPLATES[from];
+  else {
+    const t = await getTemplateVersion(db(), v.workshop.id, from);
+    if (!t) return data<ActionAnswer>({ fieldErrors: { from: "No such template in your workshop." } }, { status: 400 });
+    source = t.source;
+  }
+  const r = await createTemplate(db(), v.workshop.id, v.user.id, name, source);
+  if (r.kind === "taken") return data<ActionAnswer>({ fieldErrors: { name: `Your workshop already has a template named '${name}'.` } }, { status: 400 });
+  return redirect(`/templates/${r.id}`);
+}
+
+export default function TemplatesPage({ loaderData }: Route.ComponentProps) {
+  const { builtins, templates, canEdit } = loaderData;
+  const answer = useActionData<typeof action>() as ActionAnswer | undefined;
+  const busy = useNavigation().state === "submitting";
+  return (
+    <div className="space-y-6">
+      <div className="flex flex-wrap items-baseline gap-4">
+        <h1>Templates</h1>
+        <Link to="/templates/reference">Language reference</Link>
+      </div>
+      <p className="max-w-3xl text-iron-300">
+        A template turns a build's config into the text that goes on the SD card. Builds render with the built-in generic header unless they pin a
+        version of one of your workshop's templates on their Render view.
+      </p>
+
+      <section aria-labelledby="workshop-templates" className="card">
+        <h2 id="workshop-templates">Your workshop's templates</h2>
+        {templates.length === 0 ? (
+          <p className="mt-2 text-iron-400">None yet. Start one from a built-in below.</p>
+        ) : (
+          <table className="table mt-3">
+            <thead>
+              <tr>
+                <th scope="col">Name</th>
+                <th scope="col">Latest version</th>
+                <th scope="col">Last saved</th>
+              </tr>
+            </thead>
+            <tbody>
+              {templates.map((t) => (
+                <tr key={t.id}>
+                  <td>
+                    <Link to={`/templates/${t.id}`} className="font-mono">
+                      {t.name}
+                    </Link>
+                  </td>
+                  <td>{t.latest}</td>
+                  <td className="text-iron-300">{new Date(t.updatedAt).toISOString().slice(0, 16).replace("T", " ")} UTC</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+
+      <section aria-labelledby="builtin-templates" className="card">
+        <h2 id="builtin-templates">Built-in templates</h2>
+        <p className="mt-1 text-sm text-iron-400">Read-only; copy one to change it.</p>
+        <table className="table mt-3">
+          <tbody>
+            {builtins.map((b) => (
+              <tr key={b.name}>
+                <td>
+                  <Link to={`/templates/${b.name}`} className="font-mono">
+                    {b.name}
+                  </Link>
+                </td>
+                <td className="text-iron-300">{b.note}</td>
+                <td className="text-iron-400">{b.lines} lines</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </section>
+
+      {canEdit ? (
+        <section aria-labelledby="new-template" className="card">
+          <h2 id="new-template">New template</h2>
+          <Form method="post" className="mt-3 flex flex-wrap items-start gap-4">
+            <div>
+              <label className="label" htmlFor="tpl-name">
+                Name
+              </label>
+              <input id="tpl-name" name="name" className="field w-64 font-mono" required maxLength={60} aria-describedby="tpl-name-error" placeholder="shop-header" />
+              {answer?.fieldErrors.name ? (
+                <p id="tpl-name-error" className="field-error" role="alert">
+                  {answer.fieldErrors.name}
+                </p>
+              ) : null}
+            </div>
+            <div>
+              <label className="label" htmlFor="tpl-from">
+                Start from a copy of
+              </label>
+              <select id="tpl-from" name="from" className="field w-64" defaultValue="generic-header">
+                <optgroup label="Built-in">
+                  {builtins.map((b) => (
+                    <option key={b.name} value={b.name}>
+                      {b.name}
+                    </option>
+                  ))}
+                </optgroup>
+                {templates.length ? (
+                  <optgroup label="Your workshop">
+                    {templates.map((t) => (
+                      <option key={t.id} value={t.id}>
+                        {t.name} (v{t.latest})
+                      </option>
+                    ))}
+                  </optgroup>
+                ) : null}
+              </select>
+              {answer?.fieldErrors.from ? <p className="field-error">{answer.fieldErrors.from}</p> : null}
+            </div>
+            <button type="submit" className="btn btn-primary mt-5" disabled={busy}>
+              Create template
+            </button>
+          </Form>
+        </section>
+      ) : null}
+    </div>
+  );
+}
