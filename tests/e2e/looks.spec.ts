@@ -163,6 +163,17 @@ test("a config with errors is not saved, and the page says why", async ({ page, 
     await wipe.getByRole("button", { name: /^Wipe layer/ }).click();
     await wipe.getByRole("textbox", { name: "Duration (ms)" }).fill("0");
     await expect(wipe.locator('[data-code="timing-not-positive"]')).toBeVisible();
+    // A value the schema rejects: the field says why, and the preview keeps the last valid frame.
+    const fill = blade.getByTestId("layer").first();
+    await fill.getByRole("button", { name: /^Fill layer/ }).click();
+    await fill.getByRole("textbox", { name: "Opacity (%)" }).fill("700");
+    await expect(page.locator('div[data-path="presets[0].looks.blade.layers[0].opacity"] [data-code="out-of-range"]')).toContainText("must be at most 1");
+    await expect(page.getByText("the preview and the power figures show the last valid version")).toBeVisible();
+    const preview = page.getByRole("region", { name: "Live preview of Ashfall" });
+    await preview.getByRole("button", { name: "Ignite" }).click();
+    await preview.getByText("Colour values as text").click();
+    await expect(preview.getByRole("row", { name: /^Main blade/ }).getByRole("cell").first()).toHaveText("132 / 132");
+
     await page.getByRole("button", { name: "Save", exact: true }).click();
     await expect(page.getByTestId("save-message")).toContainText("Not saved");
     expect(await storedConfig(sql, kestrel.id)).toEqual(kestrel.config);
