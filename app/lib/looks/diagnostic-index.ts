@@ -46,8 +46,3 @@ export function indexDiagnostics(list: readonly Diagnostic[]): DiagnosticIndex {
 }
 
 export const EMPTY_INDEX = indexDiagnostics([]);
-
-/** The paths a set of controls shows: everything else belongs in the page's general list. */
-export function unplaced(list: readonly Diagnostic[], shown: ReadonlySet<string>): Diagnostic[] {
-  return list.filter((d) => !shown.has(d.path));
-}
