@@ -7,6 +7,7 @@ export default [
   route("auth/github/callback", "routes/auth.github.callback.ts"),
   route("logout", "routes/logout.ts"),
   route("healthz", "routes/healthz.ts"),
+  route("builds/:buildId/config.json", "routes/builds.$buildId.config-json.ts"),
 
   layout("routes/app-layout.tsx", [
     route("builds", "routes/builds._index.tsx"),
@@ -16,6 +17,7 @@ export default [
       route("rig", "routes/builds.$buildId.rig.tsx"),
       route("looks", "routes/builds.$buildId.looks.tsx"),
       route("render", "routes/builds.$buildId.render.tsx"),
+      route("checks", "routes/builds.$buildId.checks.tsx"),
     ]),
     route("workshop", "routes/workshop.tsx"),
     route("account", "routes/account.tsx"),

@@ -1,6 +1,7 @@
 // Reading request bodies with a byte cap, so a huge upload is refused (413) after reading at most
 // the cap, never buffered whole; and JSON with a depth cap, so a pathological document becomes a
 // 400 with a message rather than a slow walk further down.
+import { data } from "react-router";
 import { fail } from "./http.server";
 
 /** Configs are a few tens of kilobytes; 2 MB leaves room for big preset lists. */
@@ -13,11 +14,14 @@ function megabytes(n: number): string {
 }
 
 /** The body as bytes, or a 413 as soon as it passes `maxBytes` (by Content-Length or while reading). */
-export async function readBodyLimited(request: Request, maxBytes: number): Promise<Uint8Array> {
-  const tooBig = () => fail(413, `The request body is larger than ${megabytes(maxBytes)}; send a smaller config.`);
+export async function readBodyLimited(request: Request, maxBytes: number): Promise<Uint8Array<ArrayBuffer>> {
+  // The rest of the body is never read, so the connection must not carry another request.
+  const tooBig = (): never => {
+    throw data({ message: `The request body is larger than ${megabytes(maxBytes)}; send a smaller config.` }, { status: 413, headers: { Connection: "close" } });
+  };
   const declared = Number(request.headers.get("Content-Length"));
   if (Number.isFinite(declared) && declared > maxBytes) tooBig();
-  if (!request.body) return new Uint8Array(0);
+  if (!request.body) return new Uint8Array(new ArrayBuffer(0));
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
   let total = 0;

@@ -35,7 +35,7 @@ export async function apiAnswer(run: () => Promise<Response>): Promise<Response>
     if (isDataWithInit(e)) {
       const status = e.init?.status ?? 500;
       const message = (e.data as Failure | undefined)?.message ?? "Request failed";
-      return json({ error: message }, { status });
+      return json({ error: message }, { status, headers: e.init?.headers });
     }
     throw e;
   }

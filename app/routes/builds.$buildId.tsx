@@ -42,6 +42,9 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <NavLink to="render" className={tab}>
           Render
         </NavLink>
+        <NavLink to="checks" className={tab}>
+          Checks
+        </NavLink>
       </nav>
       <div className="mt-5">
         <Outlet />
