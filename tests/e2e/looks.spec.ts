@@ -183,6 +183,24 @@ test("a config with errors is not saved, and the page says why", async ({ page, 
   }
 });
 
+test("a stale save is refused with a clear message and changes nothing", async ({ page, signIn, sql }) => {
+  const kestrel = await keepKestrel(sql);
+  try {
+    await signIn("demo-builder");
+    await page.goto(`/builds/${kestrel.id}/looks`);
+    await page.getByLabel("Preset name").fill("Ashfall at dusk");
+    await expect(page.getByText("Unsaved changes")).toBeVisible();
+    // Someone else saves meanwhile.
+    await sql.query("UPDATE builds SET config_version = config_version + 1 WHERE id = $1", [kestrel.id]);
+    await page.getByRole("button", { name: "Save", exact: true }).click();
+    await expect(page.getByTestId("save-message")).toContainText("someone else saved this build after you opened it");
+    expect((await storedConfig(sql, kestrel.id)).presets[0].name).toBe("Ashfall");
+    await expect(page.getByText("Unsaved changes")).toBeVisible();
+  } finally {
+    await kestrel.restore();
+  }
+});
+
 test("the preview fires ignition and clash, and the text alternative says what shows", async ({ page, signIn }) => {
   await signIn("demo-builder");
   await openKestrelLooks(page);
