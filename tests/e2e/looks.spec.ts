@@ -8,6 +8,7 @@ import type { Page } from "@playwright/test";
 import type pg from "pg";
 import { newLayer } from "../../app/lib/config/layers";
 import type { Config } from "../../app/lib/config/schema";
+import { presetPowerFigures } from "../../app/lib/looks/power-figures";
 import { test, expect, buildIdByName } from "./fixtures";
 
 /** Kestrel's stored config as the test found it; put back afterwards so other specs see the seed. */
@@ -225,7 +226,7 @@ test("the preview fires ignition and clash, and the text alternative says what s
   await expect.poll(async () => sum(await mean())).toBeGreaterThan(sum(steady) + 100);
 });
 
-test("a reviewer sees the looks read-only", async ({ page, signIn }) => {
+test("a reviewer sees the looks read-only, with the power panel and its cautions", async ({ page, signIn, sql }) => {
   await signIn("demo-reviewer");
   await openKestrelLooks(page);
   await expect(page.getByTestId("read-only")).toBeVisible();
@@ -239,6 +240,17 @@ test("a reviewer sees the looks read-only", async ({ page, signIn }) => {
   await expect(fill.getByRole("checkbox", { name: "Fill layer 1 enabled" })).toBeDisabled();
   // The preview still runs for a reviewer.
   await expect(page.getByRole("button", { name: "Ignite" })).toBeEnabled();
+
+  // The power panel: the engine's figures for the stored preset, a plot, and the cautions.
+  const want = presetPowerFigures(await storedConfig(sql, await buildIdByName(sql, "Kestrel")), "ashfall");
+  const power = page.getByTestId("power-panel");
+  await expect(power.getByText(`${want.peakAmps.toFixed(2)} A`, { exact: true })).toBeVisible();
+  await expect(power.getByText(`${want.meanAmps.toFixed(2)} A`, { exact: true })).toBeVisible();
+  await expect(power.getByText(`${want.wireDropVolts.toFixed(2)} V`, { exact: true })).toBeVisible();
+  await expect(power.getByText(`${Math.round(want.suggestedCap * 100)} %`, { exact: true })).toBeVisible();
+  await expect(power.locator("svg .recharts-line")).toHaveCount(1);
+  await expect(power.getByTestId("safety-cautions")).toContainText("data sheet");
+  await expect(power.getByTestId("safety-cautions")).toContainText("0 °C and 40 °C");
 });
 
 test("looks.png answers the time-by-pixel picture, and a bad preset or channel is a 400", async ({ page, signIn, sql }) => {

@@ -1,9 +1,10 @@
 // The selected preset's current over the demonstration sequence, from the engine's frames, with
-// what it means for the cell and the leads, and the cautions that go with lithium-ion cells and
-// high currents. Figures are worked out after edits settle, never on every keystroke.
+// what it means for the cell and the leads, and the shared cautions that go with lithium-ion
+// cells and high currents. Figures are worked out after edits settle, never on every keystroke.
 import { useEffect, useState } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Config } from "~/lib/config/schema";
+import { SafetyCautions } from "~/components/SafetyCautions";
 import { presetPowerFigures, type PresetPowerFigures } from "~/lib/looks/power-figures";
 
 const SETTLE_MS = 350;
@@ -93,24 +94,7 @@ export function PowerPanel({ config, presetId }: { config: Config; presetId: str
           </figure>
         </>
       )}
-      <SafetyNotes />
+      <SafetyCautions headingLevel={3} className="border-soot-600 bg-soot-950/60" />
     </section>
-  );
-}
-
-export function SafetyNotes() {
-  return (
-    <aside aria-label="Battery and wiring cautions" className="rounded-md border border-brass-400/40 bg-soot-950/60 p-3 text-sm text-iron-300">
-      <h3 className="text-sm font-bold text-brass-300">Cautions</h3>
-      <ul className="mt-2 list-disc space-y-1 pl-5">
-        <li>
-          Lithium-ion cells: charge only between 0 and 40 °C, with the device's own charger, and stop when full. Stop using a cell that smells, changes colour,
-          heats up, swells, leaks or makes noise.
-        </li>
-        <li>Store cells away from anything that burns, out of the sun and out of hot cars. Recycle spent cells at a collection point; never put them in household waste.</li>
-        <li>High currents heat wiring and contacts: use a gauge rated for the peak, keep leads short, and check joints for heat during the first tests.</li>
-        <li>These figures are estimates from the looks. Defer to the cell maker's data sheet, local rules and a qualified person.</li>
-      </ul>
-    </aside>
   );
 }
