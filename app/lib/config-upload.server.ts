@@ -19,8 +19,9 @@ export async function readConfigUpload(request: Request): Promise<ConfigUpload> 
   } catch {
     fail(400, "The upload could not be read as a form; choose the file again.");
   }
-  const version = Number(form.get("version"));
-  if (!Number.isInteger(version) || version < 0) fail(400, "The form carries no config version; reload the page and try again.");
+  const rawVersion = form.get("version");
+  const version = typeof rawVersion === "string" && /^\d{1,9}$/.test(rawVersion.trim()) ? Number(rawVersion) : NaN;
+  if (!Number.isInteger(version)) fail(400, "The form carries no config version; reload the page and try again.");
   const file = form.get("file");
   if (!(file instanceof File) || file.name === "") fail(400, "Choose a JSON file to import.");
   if (file.size === 0) fail(400, `The file "${file.name}" is empty.`);
