@@ -290,10 +290,13 @@ test("looks.png answers the time-by-pixel picture, and a bad preset or channel i
   await expect(img).toHaveJSProperty("naturalHeight", 450);
 });
 
-/** Frames the preview draws over `ms`, measured in the page. */
+/** Frames the preview draws over `ms` in steady state (checks answered, power figures shown), measured in the page. */
 async function measureFps(page: Page, ms: number): Promise<{ fps: number; frames: number; seconds: number }> {
   const section = page.locator("section[data-frames-drawn]");
   await expect(section).toHaveCount(1);
+  await expect(page.getByTestId("power-panel").getByText("Peak", { exact: true })).toBeVisible();
+  await expect(page.getByTestId("check-status")).not.toContainText("Checking");
+  await page.waitForTimeout(500);
   const read = () => section.evaluate((el) => ({ n: Number(el.getAttribute("data-frames-drawn")), t: performance.now() }));
   const a = await read();
   await page.waitForTimeout(ms);
