@@ -74,7 +74,7 @@ export function PowerCard({ power, source, presetNames, rig }: PowerCardProps) {
           <tbody>
             {power.presets.map((p) => (
               <tr key={p.presetId}>
-                <th scope="row" className="text-left font-normal">{presetNames[p.presetId] ?? p.presetId}</th>
+                <th scope="row" className="border-soot-800 text-sm font-normal normal-case tracking-normal text-iron-100">{presetNames[p.presetId] ?? p.presetId}</th>
                 <td className="text-right font-mono tabular-nums">{amps(p.peakAmps)}</td>
                 <td className="text-right font-mono tabular-nums">{amps(p.typicalAmps)}</td>
                 <td className="text-right font-mono tabular-nums">{formatHours(p.runtimeHours)}</td>
