@@ -249,6 +249,8 @@ test("a reviewer sees the looks read-only, with the power panel and its cautions
   await expect(power.getByText(`${want.wireDropVolts.toFixed(2)} V`, { exact: true })).toBeVisible();
   await expect(power.getByText(`${Math.round(want.suggestedCap * 100)} %`, { exact: true })).toBeVisible();
   await expect(power.locator("svg .recharts-line")).toHaveCount(1);
+  // Worked out in a worker, so the preview's frames never wait for it.
+  await expect(power).toHaveAttribute("data-computed-in", "worker");
   await expect(power.getByTestId("safety-cautions")).toContainText("data sheet");
   await expect(power.getByTestId("safety-cautions")).toContainText("0 °C and 40 °C");
 });

@@ -1,11 +1,12 @@
 // The selected preset's current over the demonstration sequence, from the engine's frames, with
 // what it means for the cell and the leads, and the shared cautions that go with lithium-ion
 // cells and high currents. Figures are worked out after edits settle, never on every keystroke.
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Config } from "~/lib/config/schema";
 import { SafetyCautions } from "~/components/SafetyCautions";
 import { presetPowerFigures, type PresetPowerFigures } from "~/lib/looks/power-figures";
+import type { PowerReply, PowerRequest } from "./power.worker";
 
 const SETTLE_MS = 350;
 
@@ -26,27 +27,75 @@ function Figure({ label, value, note, tone = "" }: { label: string; value: strin
   );
 }
 
+/**
+ * Figures for (config, preset) once edits settle, from a worker when the browser has one (the
+ * main thread would otherwise stall the preview for a heavy look), else on the main thread.
+ */
+type PowerResult = { figures: PresetPowerFigures | null; where: "worker" | "page"; problem?: string };
+
+function usePowerFigures(config: Config, presetId: string): PowerResult {
+  const [result, setResult] = useState<PowerResult>({ figures: null, where: "page" });
+  const worker = useRef<Worker | null>(null);
+  const latest = useRef(0);
+  const first = useRef(true);
+  const pending = useRef<{ config: Config; presetId: string } | null>(null);
+  const onPage = (c: Config, p: string) => setResult({ figures: presetPowerFigures(c, p), where: "page" });
+  useEffect(() => {
+    if (typeof Worker === "undefined") return;
+    try {
+      const w = new Worker(new URL("./power.worker.ts", import.meta.url), { type: "module" });
+      w.onmessage = (e: MessageEvent<PowerReply>) => {
+        if (e.data.id !== latest.current) return;
+        if ("figures" in e.data) setResult({ figures: e.data.figures, where: "worker" });
+        else setResult({ figures: null, where: "worker", problem: e.data.error });
+      };
+      // A worker that cannot start (blocked, failed to load): the page does the work instead.
+      w.onerror = () => {
+        worker.current = null;
+        w.terminate();
+        if (pending.current) onPage(pending.current.config, pending.current.presetId);
+      };
+      worker.current = w;
+      return () => {
+        w.terminate();
+        worker.current = null;
+      };
+    } catch {
+      worker.current = null;
+    }
+  }, []);
+  useEffect(() => {
+    const id = ++latest.current;
+    const t = setTimeout(
+      () => {
+        pending.current = { config, presetId };
+        if (worker.current) worker.current.postMessage({ id, config, presetId } satisfies PowerRequest);
+        else onPage(config, presetId);
+      },
+      first.current ? 0 : SETTLE_MS,
+    );
+    first.current = false;
+    return () => clearTimeout(t);
+  }, [config, presetId]);
+  return result;
+}
+
 export function PowerPanel({ config, presetId }: { config: Config; presetId: string }) {
-  const [figures, setFigures] = useState<PresetPowerFigures | null>(null);
+  const { figures, where, problem } = usePowerFigures(config, presetId);
   const [mounted, setMounted] = useState(false);
   useEffect(() => setMounted(true), []);
-  useEffect(() => {
-    const t = setTimeout(() => setFigures(presetPowerFigures(config, presetId)), figures === null ? 0 : SETTLE_MS);
-    return () => clearTimeout(t);
-    // `figures` is read only so the first figures come at once; later ones wait for edits to settle.
-  }, [config, presetId]);
 
   const rating = config.rig.power.cellMaxContinuousAmps;
   const f = figures;
   const over = f !== null && f.peakAmps > rating;
   const near = f !== null && !over && f.peakAmps > rating * 0.8;
   return (
-    <section className="card space-y-4" aria-labelledby="power-heading" data-testid="power-panel">
+    <section className="card space-y-4" aria-labelledby="power-heading" data-testid="power-panel" data-computed-in={figures ? where : undefined}>
       <h2 id="power-heading" className="text-lg">
         Power for this preset
       </h2>
       {f === null ? (
-        <p className="text-sm text-iron-400">Working out the current…</p>
+        <p className="text-sm text-iron-400">{problem ? `The current could not be worked out for this look (${problem}).` : "Working out the current…"}</p>
       ) : (
         <>
           <dl className="grid grid-cols-2 gap-4 sm:grid-cols-3 lg:grid-cols-6">
