@@ -1,6 +1,6 @@
 // The live preview's frame rate in a real browser, as a ratio against the 60 fps display rate.
 // The figure is measured by the Playwright test "the preview keeps drawing at display rate"
-// (tests/e2e/looks.spec.ts), which writes it to PREVIEW_FPS_FILE or test-results/preview-fps.json;
+// (tests/e2e/looks.spec.ts), which writes it to PREVIEW_FPS_FILE or .data/preview-fps.json;
 // this prints the latest one. A browser is needed to measure it, so the bench does not run one.
 import { existsSync, readFileSync, statSync } from "node:fs";
 import path from "node:path";
@@ -10,11 +10,11 @@ const DISPLAY_FPS = 60;
 type Measured = { fps: number; frames: number; seconds: number; layersOnBlade: number };
 
 export async function run(): Promise<void> {
-  const file = process.env.PREVIEW_FPS_FILE ?? path.join("test-results", "preview-fps.json");
+  const file = process.env.PREVIEW_FPS_FILE ?? path.join(".data", "preview-fps.json");
   if (!existsSync(file)) {
     console.log(`no preview measurement at ${file}. Produce one with:`);
     console.log("  HB_BUILD_DIR=build-looks node scripts/test.mjs e2e tests/e2e/looks.spec.ts -g \"display rate\"");
-    console.log("(set PREVIEW_FPS_FILE to keep it outside test-results/, which Playwright empties on each run)");
+    console.log("(npm test writes it; PREVIEW_FPS_FILE points elsewhere)");
     return;
   }
   const data = JSON.parse(readFileSync(file, "utf8")) as { measuredAt: string; displayFps?: number; referenceFps?: number; demo: Measured; heavy: Measured };

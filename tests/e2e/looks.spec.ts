@@ -349,7 +349,7 @@ test("the preview keeps drawing at display rate, with the demo looks and with a 
     await expect(preview.getByRole("row", { name: /^Main blade/ }).getByRole("cell").first()).toHaveText("132 / 132");
     const many = await measureFps(page, 3000);
 
-    const file = process.env.PREVIEW_FPS_FILE ?? path.join("test-results", "preview-fps.json");
+    const file = process.env.PREVIEW_FPS_FILE ?? path.join(".data", "preview-fps.json");
     mkdirSync(path.dirname(file), { recursive: true });
     writeFileSync(
       file,
