@@ -19,8 +19,8 @@ export type RenderOutcome =
   | { ok: true; output: string; warnings: TemplateError[]; target: "c" | "text" }
   | { ok: false; errors: TemplateError[]; warnings: TemplateError[] };
 
-export function compileAndRender(source: string, config: Config, meta: RenderMeta, opts: { partials?: Record<string, string>; limits?: Partial<Limits> } = {}): RenderOutcome {
-  const compiled = compileTemplate(source, { partials: partialsFrom(opts.partials ?? {}), limits: opts.limits });
+export function compileAndRender(source: string, config: Config, meta: RenderMeta, opts: { partials?: Record<string, string>; limits?: Partial<Limits>; cache?: boolean } = {}): RenderOutcome {
+  const compiled = compileTemplate(source, { partials: partialsFrom(opts.partials ?? {}), limits: opts.limits, cache: opts.cache });
   if (!compiled.ok) return { ok: false, errors: compiled.errors.filter((e) => e.severity === "error"), warnings: compiled.errors.filter((e) => e.severity === "warning") };
   const r = renderTemplate(compiled.template, config, meta);
   if (!r.ok) return { ok: false, errors: r.errors, warnings: compiled.warnings };

@@ -105,7 +105,8 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
   const settled = useDebounced(source, 120);
   const outcome = useMemo(() => {
     if (!build) return null;
-    return compileAndRender(settled, build.config, metaForBuild(build, { name: template.name, version: template.latest }), { partials });
+    // Drafts are compiled once and dropped: caching them would only fill the caches.
+    return compileAndRender(settled, build.config, metaForBuild(build, { name: template.name, version: template.latest }), { partials, cache: false });
   }, [settled, build, partials, template.name, template.latest]);
   const problems = outcome ? (outcome.ok ? outcome.warnings : [...outcome.errors, ...outcome.warnings]) : [];
   const diagnostics = useMemo(() => toCm(problems), [outcome]); // eslint-disable-line react-hooks/exhaustive-deps

@@ -9,6 +9,18 @@ import { renderFail, report, type Env, type Ev } from "./scope";
 import { ANY, BOOL, describe, LOOP_FIELDS, NUM, STR, type Ty } from "./types";
 
 const hasOwn = Object.prototype.hasOwnProperty;
+/**
+ * The "may be missing" variant of a type, made once per type: types are never changed after they
+ * are built, so every field access can share the copy instead of spreading a new object.
+ */
+const MAYBE = new WeakMap<Ty, Ty>();
+function maybeOf(ty: Ty): Ty {
+  if ("maybe" in ty && ty.maybe) return ty;
+  let m = MAYBE.get(ty);
+  if (!m) MAYBE.set(ty, (m = Object.freeze({ ...ty, maybe: true }) as Ty));
+  return m;
+}
+
 const PROTO_KEYS = new Set(Object.getOwnPropertyNames(Object.prototype).concat(["__proto__", "prototype", "constructor"]));
 
 // Passing a closure through a call keeps it anonymous, which keeps dev-time transforms that
@@ -62,8 +74,8 @@ export function compileExpr(env: Env, e: Expr): Compiled {
       const obj = compileExpr(env, e.obj);
       const key = compileExpr(env, e.key);
       let ty: Ty = ANY;
-      if (obj.ty.k === "list") ty = { ...obj.ty.of, maybe: true } as Ty;
-      else if (obj.ty.k === "record") ty = { ...obj.ty.of, maybe: true } as Ty;
+      if (obj.ty.k === "list") ty = maybeOf(obj.ty.of);
+      else if (obj.ty.k === "record") ty = maybeOf(obj.ty.of);
       else if (obj.ty.k !== "any" && obj.ty.k !== "obj") report(env, `${describe(obj.ty)} cannot be indexed with [ ]`, e.from, e.to);
       const [from, to] = span(env, e.key.from, e.key.to);
       const o = obj.ev;
@@ -164,12 +176,12 @@ function fieldType(env: Env, ty: Ty, key: string, from: number, to: number): Ty 
     }
   } else if (ty.k === "record") {
     out = ty.of;
-    return { ...out, maybe: true } as Ty;
+    return maybeOf(out);
   } else {
     report(env, `${describe(ty)} has no field '${key}'${ty.k === "list" ? "; use '|> count' for its length" : ""}`, from, to);
     return ANY;
   }
-  return maybe ? ({ ...out, maybe: true } as Ty) : out;
+  return maybe ? maybeOf(out) : out;
 }
 
 function expectNum(env: Env, ty: Ty, what: string, from: number, to: number) {

@@ -1,7 +1,7 @@
 // The public face of the language: compile once (parse, check against the model's schema,
 // build closures), render many times as a pure function of config, metadata and template.
 import type { Config } from "../config/schema";
-import { alsoClear, parseCached } from "./cache";
+import { alsoClear, parseCached, parseTemplate } from "./cache";
 import { compileBody } from "./compile-nodes";
 import { makeError, TemplateFailure, type TemplateError } from "./errors";
 import { DEFAULT_LIMITS, type Limits } from "./limits";
@@ -31,6 +31,11 @@ export interface CompiledTemplate {
 export interface CompileOptions {
   partials?: (name: string) => string | undefined;
   limits?: Partial<Limits>;
+  /**
+   * false: keep neither the parse nor the compiled template. For drafts compiled on every
+   * keystroke, which would otherwise fill the caches with sources never seen again.
+   */
+  cache?: boolean;
 }
 
 export type CompileResult = { ok: true; template: CompiledTemplate; warnings: TemplateError[] } | { ok: false; errors: TemplateError[] };
@@ -52,7 +57,7 @@ export function clearCompiled(): void {
 
 export function compileTemplate(source: string, opts: CompileOptions = {}): CompileResult {
   if (typeof source !== "string") return { ok: false, errors: [makeError("", "tokenize", "a template must be a string", 0)] };
-  const cacheable = opts.partials === undefined && opts.limits === undefined;
+  const cacheable = opts.partials === undefined && opts.limits === undefined && opts.cache !== false;
   if (cacheable) {
     const hit = compiled.get(source);
     if (hit) return hit;
@@ -67,7 +72,7 @@ export function compileTemplate(source: string, opts: CompileOptions = {}): Comp
 
 function compileUncached(source: string, opts: CompileOptions): CompileResult {
   const limits: Limits = opts.limits ? { ...DEFAULT_LIMITS, ...opts.limits } : DEFAULT_LIMITS;
-  const parsed = parseCached(source, limits);
+  const parsed = opts.cache === false ? parseTemplate(source, limits) : parseCached(source, limits);
   if (!parsed.ast) return { ok: false, errors: parsed.errors };
   const root = new Scope(null);
   root.vars.set("config", { slot: CONFIG_SLOT, ty: CONFIG_TYPE });

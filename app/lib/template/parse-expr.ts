@@ -6,11 +6,7 @@ import { TemplateFailure } from "./errors";
 import type { Piece, Tok } from "./tokenize";
 
 export const KEYWORDS = new Set(["and", "or", "not", "true", "false", "nothing"]);
-const OR = ["or"];
-const AND = ["and"];
 const CMP = ["==", "!=", "<", "<=", ">", ">="];
-const ADD = ["+", "-"];
-const MUL = ["*", "/", "%"];
 
 /** Expression parser over the tokens of one tag. */
 export class Cursor {
@@ -89,21 +85,25 @@ export class Cursor {
     this.nest--;
     return e;
   }
-  private bin(next: () => Expr, ops: string[]): Expr {
-    let left = next();
-    for (;;) {
-      const t = this.toks[this.i];
-      if (!t || t.kind === "str" || !ops.includes(t.value)) return left;
-      this.i++;
-      const right = next();
-      left = { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
-    }
-  }
+  // Each level is a plain loop calling the next one directly: no closure per call, since an
+  // expression is parsed on every keystroke in the editor.
   private or(): Expr {
-    return this.bin(() => this.and(), OR);
+    let left = this.and();
+    for (let t = this.toks[this.i]; t && t.kind === "ident" && t.value === "or"; t = this.toks[this.i]) {
+      this.i++;
+      const right = this.and();
+      left = { k: "binary", op: "or", left, right, from: left.from, to: right.to };
+    }
+    return left;
   }
   private and(): Expr {
-    return this.bin(() => this.not(), AND);
+    let left = this.not();
+    for (let t = this.toks[this.i]; t && t.kind === "ident" && t.value === "and"; t = this.toks[this.i]) {
+      this.i++;
+      const right = this.not();
+      left = { k: "binary", op: "and", left, right, from: left.from, to: right.to };
+    }
+    return left;
   }
   private not(): Expr {
     const t = this.toks[this.i];
@@ -125,10 +125,22 @@ export class Cursor {
     return left;
   }
   private add(): Expr {
-    return this.bin(() => this.mul(), ADD);
+    let left = this.mul();
+    for (let t = this.toks[this.i]; t && t.kind === "op" && (t.value === "+" || t.value === "-"); t = this.toks[this.i]) {
+      this.i++;
+      const right = this.mul();
+      left = { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
+    }
+    return left;
   }
   private mul(): Expr {
-    return this.bin(() => this.unary(), MUL);
+    let left = this.unary();
+    for (let t = this.toks[this.i]; t && t.kind === "op" && (t.value === "*" || t.value === "/" || t.value === "%"); t = this.toks[this.i]) {
+      this.i++;
+      const right = this.unary();
+      left = { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
+    }
+    return left;
   }
   private unary(): Expr {
     const t = this.toks[this.i];

@@ -19,8 +19,13 @@ export type Piece =
   | { kind: "out" | "stmt"; toks: Tok[]; from: number; to: number; trimBefore: boolean; trimAfter: boolean }
   | { kind: "comment"; from: number; to: number; trimBefore: boolean; trimAfter: boolean };
 
-const OPS2 = new Set(["==", "!=", "<=", ">=", "|>"]);
-const OPS1 = new Set(["(", ")", "[", "]", ".", ",", "+", "-", "*", "/", "%", "<", ">", "="]);
+const OPS2 = ["==", "!=", "<=", ">=", "|>"];
+const OPS1 = ["(", ")", "[", "]", ".", ",", "+", "-", "*", "/", "%", "<", ">", "="];
+/** Two-character operators by their first character's code (each first character starts one). */
+const OPS2_BY_CODE: ({ op: string; second: number } | undefined)[] = new Array(128).fill(undefined);
+for (const op of OPS2) OPS2_BY_CODE[op.charCodeAt(0)] = { op, second: op.charCodeAt(1) };
+const OPS1_BY_CODE: (string | undefined)[] = new Array(128).fill(undefined);
+for (const op of OPS1) OPS1_BY_CODE[op.charCodeAt(0)] = op;
 
 function isIdentStart(c: number): boolean {
   return (c >= 97 && c <= 122) || (c >= 65 && c <= 90) || c === 95;
@@ -124,12 +129,15 @@ function lexTag(src: string, at: number, kind: "out" | "stmt"): Piece {
     } else if (c === 34 || c === 39) {
       i = lexString(src, i, toks);
     } else {
-      const two = src.slice(i, i + 2);
-      if (OPS2.has(two)) {
-        toks.push({ kind: "op", value: two, from: i, to: i + 2 });
+      // Operators by character code, with their text from a constant table: no slice per operator.
+      const two = c < 128 ? OPS2_BY_CODE[c] : undefined;
+      const op2 = two !== undefined && src.charCodeAt(i + 1) === two.second ? two.op : undefined;
+      const op1 = c < 128 ? OPS1_BY_CODE[c] : undefined;
+      if (op2 !== undefined) {
+        toks.push({ kind: "op", value: op2, from: i, to: i + 2 });
         i += 2;
-      } else if (OPS1.has(src[i])) {
-        toks.push({ kind: "op", value: src[i], from: i, to: i + 1 });
+      } else if (op1 !== undefined) {
+        toks.push({ kind: "op", value: op1, from: i, to: i + 1 });
         i++;
       } else {
         const shown = c < 32 || c > 126 ? `\\u{${(src.codePointAt(i) ?? c).toString(16)}}` : src[i];
@@ -171,23 +179,27 @@ export function applyWhitespace(pieces: Piece[]): Piece[] {
   const isBlockTag = (p: Piece) => p.kind === "stmt" || p.kind === "comment";
   // Decide on the original text, so that one removed line does not hide the next.
   const orig = pieces.map((p) => (p.kind === "text" ? p.value : null));
-  const isBlank = (k: number) => orig[k] !== null && !(pieces[k] as { raw: boolean }).raw && /^[ \t]*$/.test(orig[k]!);
+  const isBlank = (k: number) => orig[k] !== null && !(pieces[k] as { raw: boolean }).raw && onlySpaces(orig[k]!);
   for (let i = 0; i < pieces.length; i++) {
     if (!isBlockTag(pieces[i])) continue;
     const before = i === 0 ? "" : orig[i - 1];
-    if (before === null || !(/\n[ \t]*$/.test(before) || (i <= 1 && /^[ \t]*$/.test(before)))) continue;
+    if (before === null || !(newlineThenSpaces(before) || (i <= 1 && onlySpaces(before)))) continue;
     let j = i;
     while (j + 1 < pieces.length && (isBlockTag(pieces[j + 1]) || (isBlank(j + 1) && j + 2 < pieces.length && isBlockTag(pieces[j + 2])))) j++;
     const after = j + 1 < pieces.length ? orig[j + 1] : "";
-    if (after === null || !/^[ \t]*(\r?\n|$)/.test(after)) {
+    if (after === null || lineEndAfterSpaces(after) < 0) {
       i = j;
       continue;
     }
     const prev = pieces[i - 1];
     const next = pieces[j + 1];
-    if (prev && prev.kind === "text") prev.value = prev.value.replace(/[ \t]*$/, "");
+    if (prev && prev.kind === "text") prev.value = prev.value.slice(0, spacesStart(prev.value));
     for (let k = i + 1; k < j; k++) if (pieces[k].kind === "text") (pieces[k] as { value: string }).value = "";
-    if (next && next.kind === "text") next.value = next.value.replace(/^[ \t]*(\r?\n)?/, "");
+    if (next && next.kind === "text") {
+      const cut = lineEndAfterSpaces(next.value);
+      // Leading spaces and tabs go, and one line end after them (as /^[ \t]*(\r?\n)?/ would).
+      next.value = next.value.slice(cut >= 0 ? cut : spacesEnd(next.value));
+    }
     i = j;
   }
   for (let i = 0; i < pieces.length; i++) {
@@ -195,8 +207,46 @@ export function applyWhitespace(pieces: Piece[]): Piece[] {
     if (p.kind === "text") continue;
     const prev = pieces[i - 1];
     const next = pieces[i + 1];
-    if (p.trimBefore && prev?.kind === "text" && !prev.raw) prev.value = prev.value.replace(/\s+$/, "");
-    if (p.trimAfter && next?.kind === "text" && !next.raw) next.value = next.value.replace(/^\s+/, "");
+    if (p.trimBefore && prev?.kind === "text" && !prev.raw) prev.value = prev.value.trimEnd();
+    if (p.trimAfter && next?.kind === "text" && !next.raw) next.value = next.value.trimStart();
   }
   return pieces;
+}
+
+// Character scans instead of end-anchored regular expressions, which V8 retries from every
+// position of a long text piece.
+const isSpaceTab = (c: number) => c === 32 || c === 9;
+
+function onlySpaces(s: string): boolean {
+  for (let k = 0; k < s.length; k++) if (!isSpaceTab(s.charCodeAt(k))) return false;
+  return true;
+}
+
+/** Where the trailing run of spaces and tabs starts. */
+function spacesStart(s: string): number {
+  let k = s.length;
+  while (k > 0 && isSpaceTab(s.charCodeAt(k - 1))) k--;
+  return k;
+}
+
+/** Where the leading run of spaces and tabs ends. */
+function spacesEnd(s: string): number {
+  let k = 0;
+  while (k < s.length && isSpaceTab(s.charCodeAt(k))) k++;
+  return k;
+}
+
+/** True when `s` ends with a newline followed only by spaces and tabs. */
+function newlineThenSpaces(s: string): boolean {
+  const k = spacesStart(s);
+  return k > 0 && s.charCodeAt(k - 1) === 10;
+}
+
+/** After leading spaces: the end of the text (its length) or just past "\n" / "\r\n"; else -1. */
+function lineEndAfterSpaces(s: string): number {
+  const k = spacesEnd(s);
+  if (k === s.length) return k;
+  if (s.charCodeAt(k) === 10) return k + 1;
+  if (s.charCodeAt(k) === 13 && s.charCodeAt(k + 1) === 10) return k + 2;
+  return -1;
 }
