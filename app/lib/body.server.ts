@@ -13,14 +13,29 @@ function megabytes(n: number): string {
   return `${(n / (1024 * 1024)).toFixed(n % (1024 * 1024) === 0 ? 0 : 1)} MB`;
 }
 
-/** The body as bytes, or a 413 as soon as it passes `maxBytes` (by Content-Length or while reading). */
+/** Past the cap, bodies up to this size are read and thrown away so the client sees the 413 cleanly. */
+const DRAIN_LIMIT_BYTES = 16 * 1024 * 1024;
+
+async function drain(reader: ReadableStreamDefaultReader<Uint8Array>, alreadyRead: number): Promise<void> {
+  let total = alreadyRead;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) return;
+    total += value.byteLength;
+    if (total > DRAIN_LIMIT_BYTES) return void (await reader.cancel().catch(() => {}));
+  }
+}
+
+/** The body as bytes, or a 413 once it passes `maxBytes` (by Content-Length or while reading). */
 export async function readBodyLimited(request: Request, maxBytes: number): Promise<Uint8Array<ArrayBuffer>> {
-  // The rest of the body is never read, so the connection must not carry another request.
+  // A client still sending when the answer comes sees a broken pipe instead of the 413, so a
+  // moderately oversized body is read to its end (and discarded, never kept); a huge one is cut
+  // off, and the connection is closed since the rest of that body was never read.
   const tooBig = (): never => {
     throw data({ message: `The request body is larger than ${megabytes(maxBytes)}; send a smaller config.` }, { status: 413, headers: { Connection: "close" } });
   };
   const declared = Number(request.headers.get("Content-Length"));
-  if (Number.isFinite(declared) && declared > maxBytes) tooBig();
+  if (Number.isFinite(declared) && declared > DRAIN_LIMIT_BYTES) tooBig();
   if (!request.body) return new Uint8Array(new ArrayBuffer(0));
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
@@ -30,7 +45,7 @@ export async function readBodyLimited(request: Request, maxBytes: number): Promi
     if (done) break;
     total += value.byteLength;
     if (total > maxBytes) {
-      await reader.cancel().catch(() => {});
+      await drain(reader, total);
       tooBig();
     }
     chunks.push(value);
