@@ -19,6 +19,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const tab = ({ isActive }: { isActive: boolean }) =>
   `border-b-2 px-3 py-2 text-sm no-underline ${isActive ? "border-ember-500 text-iron-100" : "border-transparent text-iron-300 hover:text-iron-100"}`;
 
+/** The build's sections, in the order the work goes: rig, looks, checks, then the rendered config. */
+const SECTIONS = [
+  [".", "Overview"],
+  ["rig", "Rig"],
+  ["looks", "Looks"],
+  ["checks", "Checks"],
+  ["render", "Render"],
+] as const;
+
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
   const { build } = loaderData;
   return (
@@ -30,21 +39,11 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <span className="text-iron-400">{build.client_name}</span>
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
-        <NavLink to="." end className={tab}>
-          Overview
-        </NavLink>
-        <NavLink to="rig" className={tab}>
-          Rig
-        </NavLink>
-        <NavLink to="looks" className={tab}>
-          Looks
-        </NavLink>
-        <NavLink to="render" className={tab}>
-          Render
-        </NavLink>
-        <NavLink to="checks" className={tab}>
-          Checks
-        </NavLink>
+        {SECTIONS.map(([to, label]) => (
+          <NavLink key={to} to={to} end={to === "."} className={tab}>
+            {label}
+          </NavLink>
+        ))}
       </nav>
       <div className="mt-5">
         <Outlet />

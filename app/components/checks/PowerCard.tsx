@@ -1,6 +1,7 @@
 // The build's power summary over every preset: peak, typical draw, runtime, wire drop and heat,
 // the brightness cap that keeps peaks under the cell's rating, energy, and a row per preset.
 import type { PowerSummary } from "~/lib/power/estimate";
+import { Figure } from "~/components/Figure";
 
 export type PowerCardProps = {
   power: PowerSummary;
@@ -14,16 +15,6 @@ export function formatHours(h: number): string {
   if (!Number.isFinite(h) || h < 0) return "—";
   const total = Math.round(h * 60);
   return `${Math.floor(total / 60)} h ${String(total % 60).padStart(2, "0")} min`;
-}
-
-function Figure({ label, value, note, tone = "" }: { label: string; value: string; note?: string; tone?: string }) {
-  return (
-    <div>
-      <dt className="text-xs uppercase tracking-wide text-iron-400">{label}</dt>
-      <dd className={`font-mono text-lg tabular-nums ${tone}`}>{value}</dd>
-      {note ? <dd className="text-xs text-iron-400">{note}</dd> : null}
-    </div>
-  );
 }
 
 export function PowerCard({ power, source, presetNames, rig }: PowerCardProps) {

@@ -7,6 +7,7 @@ import type { Config } from "~/lib/config/schema";
 import { SafetyCautions } from "~/components/SafetyCautions";
 import { presetPowerFigures, type PresetPowerFigures } from "~/lib/looks/power-figures";
 import type { PowerReply, PowerRequest } from "./power.worker";
+import { Figure } from "~/components/Figure";
 
 const SETTLE_MS = 350;
 
@@ -15,16 +16,6 @@ function hours(h: number): string {
   const whole = Math.floor(h);
   const min = Math.round((h - whole) * 60);
   return `${whole} h ${String(min).padStart(2, "0")} min`;
-}
-
-function Figure({ label, value, note, tone = "" }: { label: string; value: string; note?: string; tone?: string }) {
-  return (
-    <div>
-      <dt className="text-xs uppercase tracking-wide text-iron-400">{label}</dt>
-      <dd className={`font-mono text-lg tabular-nums ${tone}`}>{value}</dd>
-      {note ? <dd className="text-xs text-iron-400">{note}</dd> : null}
-    </div>
-  );
 }
 
 /**
