@@ -74,7 +74,15 @@ function needColor(v: unknown): string {
   return (v as string).slice(1);
 }
 
-const cStr = (t: Ty): Ty => ({ ...STR, maybe: "maybe" in t && t.maybe }) as Ty;
+// The output type of the C text filters depends only on the input's 'maybe' (false, true, or a
+// present-but-undefined flag), so the three possible types are made once, not on every use.
+const C_STR_FALSE = Object.freeze({ ...STR, maybe: false }) as Ty;
+const C_STR_TRUE = Object.freeze({ ...STR, maybe: true }) as Ty;
+const C_STR_UNSET = Object.freeze({ ...STR, maybe: undefined }) as Ty;
+const cStr = (t: Ty): Ty => {
+  const m = "maybe" in t && t.maybe;
+  return m === true ? C_STR_TRUE : m === undefined ? C_STR_UNSET : C_STR_FALSE;
+};
 
 export const C_FILTERS: [string, FilterDef][] = [
   [

@@ -43,6 +43,13 @@ export function truthy(v: unknown): boolean {
 export function span(env: Env, from: number, to: number): [number, number] {
   return env.unit.site ? [env.unit.site.from, env.unit.site.to] : [from, to];
 }
+/** The two ends of `span` without the pair: one is asked for per node and expression. */
+export function spanFrom(env: Env, from: number): number {
+  return env.unit.site ? env.unit.site.from : from;
+}
+export function spanTo(env: Env, to: number): number {
+  return env.unit.site ? env.unit.site.to : to;
+}
 
 export interface Compiled {
   ev: Ev;
@@ -77,7 +84,8 @@ export function compileExpr(env: Env, e: Expr): Compiled {
       if (obj.ty.k === "list") ty = maybeOf(obj.ty.of);
       else if (obj.ty.k === "record") ty = maybeOf(obj.ty.of);
       else if (obj.ty.k !== "any" && obj.ty.k !== "obj") report(env, `${describe(obj.ty)} cannot be indexed with [ ]`, e.from, e.to);
-      const [from, to] = span(env, e.key.from, e.key.to);
+      const from = spanFrom(env, e.key.from);
+      const to = spanTo(env, e.key.to);
       const o = obj.ev;
       const k = key.ev;
       return {
@@ -97,7 +105,8 @@ export function compileExpr(env: Env, e: Expr): Compiled {
       const a = arg.ev;
       if (e.op === "not") return { ev: anon((c) => !truthy(a(c))), ty: BOOL, cSafe: true };
       expectNum(env, arg.ty, "'-'", e.arg.from, e.arg.to);
-      const [from, to] = span(env, e.from, e.to);
+      const from = spanFrom(env, e.from);
+      const to = spanTo(env, e.to);
       return {
         ty: NUM,
         cSafe: true,
@@ -117,17 +126,21 @@ export function compileExpr(env: Env, e: Expr): Compiled {
 
 function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
   // Collapse a chain a.b.c into one closure over a fixed key list.
-  const keys: string[] = [];
   let base: Expr = e;
-  const gets: Extract<Expr, { k: "get" }>[] = [];
+  let depth = 0;
   while (base.k === "get") {
-    gets.unshift(base);
+    depth++;
     base = base.obj;
   }
+  // The chain, outermost read last: filled from the end, no array shifting.
+  const gets: Extract<Expr, { k: "get" }>[] = new Array(depth);
+  for (let g: Expr = e, i = depth - 1; g.k === "get"; g = g.obj, i--) gets[i] = g;
+  const keys: string[] = new Array(depth);
   const root = compileExpr(env, base);
   let ty = root.ty;
-  for (const g of gets) {
-    keys.push(g.key);
+  for (let i = 0; i < depth; i++) {
+    const g = gets[i];
+    keys[i] = g.key;
     ty = fieldType(env, ty, g.key, g.keyFrom, g.to);
   }
   const r = root.ev;
@@ -157,9 +170,10 @@ function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
 }
 
 function fieldType(env: Env, ty: Ty, key: string, from: number, to: number): Ty {
-  const maybe = "maybe" in ty && ty.maybe;
-  let out: Ty | undefined;
   if (ty.k === "any") return ANY;
+  // A plain read rather than `in`: types are plain objects and no prototype has a 'maybe'.
+  const maybe = (ty as { maybe?: boolean }).maybe;
+  let out: Ty | undefined;
   if (ty.k === "obj") {
     out = ty.fields.get(key);
     if (!out || PROTO_KEYS.has(key)) {
@@ -194,7 +208,8 @@ function compileBinary(env: Env, e: Extract<Expr, { k: "binary" }>): Compiled {
   const l = L.ev;
   const r = R.ev;
   const op = e.op;
-  const [from, to] = span(env, e.from, e.to);
+  const from = spanFrom(env, e.from);
+  const to = spanTo(env, e.to);
   if (op === "and") return { ty: BOOL, cSafe: true, ev: anon((c) => truthy(l(c)) && truthy(r(c))) };
   if (op === "or") return { ty: BOOL, cSafe: true, ev: anon((c) => truthy(l(c)) || truthy(r(c))) };
   if (op === "==") return { ty: BOOL, cSafe: true, ev: anon((c) => same(l(c), r(c))) };
@@ -283,7 +298,8 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   if (!accepts(def.input, input.ty)) report(env, `filter '${e.name}' needs ${KIND_WORDS[def.input]}, but gets ${describe(input.ty)}`, e.nameFrom, e.nameTo);
   const fn = def.fn;
   const inp = input.ev;
-  const [from, to] = span(env, e.nameFrom, e.nameTo);
+  const from = spanFrom(env, e.nameFrom);
+  const to = spanTo(env, e.nameTo);
   const argEvs = args.map((a) => a.ev);
   const name = e.name;
   let ev: Ev;
@@ -316,5 +332,6 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
       }
     });
   }
-  return { ev, ty: def.out(input.ty), cSafe: !!def.cSafe || (input.cSafe && def.out(input.ty).k !== "str") };
+  const ty = def.out(input.ty);
+  return { ev, ty, cSafe: !!def.cSafe || (input.cSafe && ty.k !== "str") };
 }

@@ -3,16 +3,34 @@
 // recurses); every loop pass, piece use, and appended byte is charged to the render budget.
 import type { Node } from "./ast";
 import { suggest } from "./errors";
-import { compileExpr, span, truthy } from "./compile-expr";
+import { compileExpr, spanFrom, spanTo, truthy } from "./compile-expr";
 import { show, toText } from "./filters";
 import { parseCached } from "./cache";
 import { bind, renderFail, report, Scope, type Ctx, type Env, type Run, type Unit } from "./scope";
 import type { Ty } from "./types";
 
+/**
+ * A nested environment. Written out field by field: an object spread of the environment was the
+ * largest single cost of checking a template, and every block makes one.
+ */
+function withScope(env: Env, scope: Scope, unit: Unit = env.unit, stack: string[] = env.stack): Env {
+  return {
+    unit,
+    scope,
+    slots: env.slots,
+    limits: env.limits,
+    target: env.target,
+    diags: env.diags,
+    stack,
+    expansions: env.expansions,
+    resolve: env.resolve,
+  };
+}
+
 export function compileBody(env: Env, nodes: Node[]): Run {
   const runs: Run[] = [];
   const scope = new Scope(env.scope);
-  const inner: Env = { ...env, scope };
+  const inner: Env = withScope(env, scope);
   for (const n of nodes) {
     const r = compileNode(inner, n);
     if (r) runs.push(r);
@@ -34,34 +52,14 @@ export function step(c: Ctx, from: number, to: number) {
   if ((c.steps & 1023) === 0 && Date.now() > c.deadline) throw renderFail("rendering took longer than the time limit", from, to);
 }
 
+// Each case that makes a closure does it in a function of its own, so a call allocates only
+// the captured variables of its own kind of node.
 function compileNode(env: Env, n: Node): Run | null {
-  const [from, to] = span(env, n.from, n.to);
   switch (n.k) {
-    case "text": {
-      const s = n.value;
-      return (c) => appendChecked(c, s, from, to);
-    }
-    case "out": {
-      const x = compileExpr(env, n.expr);
-      if (env.target === "c" && x.ty.k === "str" && x.ty.free && !x.cSafe)
-        report(env, "model text printed into C without a C filter; add '|> cstr', '|> ccomment' or '|> cident'", n.from, n.to, "warning");
-      if (x.ty.k === "list" || x.ty.k === "obj" || x.ty.k === "record")
-        report(env, `cannot print ${x.ty.k === "obj" ? `a whole ${x.ty.name}` : "a list or table"}; print one of its fields or use '|> join' / '|> json'`, n.expr.from, n.expr.to);
-      const ev = x.ev;
-      return (c) => {
-        const v = ev(c);
-        let s: string;
-        if (typeof v === "string") s = v;
-        else {
-          try {
-            s = toText(v);
-          } catch (err) {
-            throw renderFail((err as Error).message, from, to);
-          }
-        }
-        appendChecked(c, s, from, to);
-      };
-    }
+    case "text":
+      return compileText(n.value, spanFrom(env, n.from), spanTo(env, n.to));
+    case "out":
+      return compileOut(env, n, spanFrom(env, n.from), spanTo(env, n.to));
     case "if": {
       const conds = n.branches.map((b) => compileExpr(env, b.cond).ev);
       const bodies = n.branches.map((b) => compileBody(env, b.body));
@@ -82,7 +80,7 @@ function compileNode(env: Env, n: Node): Run | null {
       };
     }
     case "over":
-      return compileOver(env, n, from, to);
+      return compileOver(env, n, spanFrom(env, n.from), spanTo(env, n.to));
     case "let": {
       const x = compileExpr(env, n.value);
       if (n.name === "config" || n.name === "meta") {
@@ -99,8 +97,34 @@ function compileNode(env: Env, n: Node): Run | null {
       };
     }
     case "use":
-      return compileUse(env, n, from, to);
+      return compileUse(env, n, spanFrom(env, n.from), spanTo(env, n.to));
   }
+}
+
+function compileText(s: string, from: number, to: number): Run {
+  return (c) => appendChecked(c, s, from, to);
+}
+
+function compileOut(env: Env, n: Extract<Node, { k: "out" }>, from: number, to: number): Run {
+  const x = compileExpr(env, n.expr);
+  if (env.target === "c" && x.ty.k === "str" && x.ty.free && !x.cSafe)
+    report(env, "model text printed into C without a C filter; add '|> cstr', '|> ccomment' or '|> cident'", n.from, n.to, "warning");
+  if (x.ty.k === "list" || x.ty.k === "obj" || x.ty.k === "record")
+    report(env, `cannot print ${x.ty.k === "obj" ? `a whole ${x.ty.name}` : "a list or table"}; print one of its fields or use '|> join' / '|> json'`, n.expr.from, n.expr.to);
+  const ev = x.ev;
+  return (c) => {
+    const v = ev(c);
+    let s: string;
+    if (typeof v === "string") s = v;
+    else {
+      try {
+        s = toText(v);
+      } catch (err) {
+        throw renderFail((err as Error).message, from, to);
+      }
+    }
+    appendChecked(c, s, from, to);
+  };
 }
 
 function compileOver(env: Env, n: Extract<Node, { k: "over" }>, from: number, to: number): Run {
@@ -110,13 +134,14 @@ function compileOver(env: Env, n: Extract<Node, { k: "over" }>, from: number, to
   else if (list.ty.k === "record") report(env, "'over' walks a list; for a keyed table use '|> entries' (items have .key and .value)", n.list.from, n.list.to);
   else if (list.ty.k !== "any") report(env, `'over' needs a list, not ${list.ty.k === "obj" ? `a ${list.ty.name}` : list.ty.k === "str" ? "text" : "a single value"}`, n.list.from, n.list.to);
   const scope = new Scope(env.scope);
-  const inner: Env = { ...env, scope };
+  const inner: Env = withScope(env, scope);
   const itemSlot = bind(inner, scope, n.item, elem);
   const infoSlot = n.info ? bind(inner, scope, n.info, { k: "loop" }) : -1;
   const body = compileBody(inner, n.body);
   const none = n.none ? compileBody(env, n.none) : null;
   const ev = list.ev;
-  const [lf, lt] = span(env, n.list.from, n.list.to);
+  const lf = spanFrom(env, n.list.from);
+  const lt = spanTo(env, n.list.to);
   return (c) => {
     const items = ev(c);
     if (!Array.isArray(items)) {
@@ -185,7 +210,7 @@ function compileUse(env: Env, n: Extract<Node, { k: "use" }>, from: number, to: 
   const argRuns: { slot: number; ev: (c: Ctx) => unknown }[] = [];
   // Pieces see the model, the build details and their parameters, nothing of the caller.
   const scope = new Scope(rootScopeOf(env.scope));
-  const inner: Env = { ...env, unit, scope, stack: [...env.stack, label] };
+  const inner: Env = withScope(env, scope, unit, [...env.stack, label]);
   const given = new Map(n.args.map((a) => [a.name, a]));
   for (const a of n.args) {
     if (!params.some((p) => p.name === a.name)) {

@@ -27,11 +27,18 @@ for (const op of OPS2) OPS2_BY_CODE[op.charCodeAt(0)] = { op, second: op.charCod
 const OPS1_BY_CODE: (string | undefined)[] = new Array(128).fill(undefined);
 for (const op of OPS1) OPS1_BY_CODE[op.charCodeAt(0)] = op;
 
+/** Character classes of ASCII codes: 1 starts a name (a-z A-Z _), 2 continues one (also 0-9). */
+const CLASS = new Uint8Array(128);
+for (let c = 0; c < 128; c++) {
+  const start = (c >= 97 && c <= 122) || (c >= 65 && c <= 90) || c === 95;
+  CLASS[c] = (start ? 1 : 0) | (start || (c >= 48 && c <= 57) ? 2 : 0);
+}
+// A code past the end of the source is NaN, which fails `c < 128` like any non-ASCII code.
 function isIdentStart(c: number): boolean {
-  return (c >= 97 && c <= 122) || (c >= 65 && c <= 90) || c === 95;
+  return c < 128 && (CLASS[c] & 1) !== 0;
 }
 function isIdentPart(c: number): boolean {
-  return isIdentStart(c) || (c >= 48 && c <= 57);
+  return c < 128 && (CLASS[c] & 2) !== 0;
 }
 function isDigit(c: number): boolean {
   return c >= 48 && c <= 57;
