@@ -183,9 +183,12 @@ function lexString(src: string, start: number, toks: Tok[]): number {
  * (indent and newline), so block tags do not leave blank lines in generated C; then '~' trims.
  */
 export function applyWhitespace(pieces: Piece[]): Piece[] {
-  const isBlockTag = (p: Piece) => p.kind === "stmt" || p.kind === "comment";
   // Decide on the original text, so that one removed line does not hide the next.
-  const orig = pieces.map((p) => (p.kind === "text" ? p.value : null));
+  const orig: (string | null)[] = new Array(pieces.length);
+  for (let k = 0; k < pieces.length; k++) {
+    const p = pieces[k];
+    orig[k] = p.kind === "text" ? p.value : null;
+  }
   const isBlank = (k: number) => orig[k] !== null && !(pieces[k] as { raw: boolean }).raw && onlySpaces(orig[k]!);
   for (let i = 0; i < pieces.length; i++) {
     if (!isBlockTag(pieces[i])) continue;
@@ -218,6 +221,10 @@ export function applyWhitespace(pieces: Piece[]): Piece[] {
     if (p.trimAfter && next?.kind === "text" && !next.raw) next.value = next.value.trimStart();
   }
   return pieces;
+}
+
+function isBlockTag(p: Piece): boolean {
+  return p.kind === "stmt" || p.kind === "comment";
 }
 
 // Character scans instead of end-anchored regular expressions, which V8 retries from every
