@@ -282,9 +282,13 @@ function accepts(kind: InputKind, ty: Ty): boolean {
 
 const KIND_WORDS: Record<InputKind, string> = { any: "any value", str: "text", num: "a number", list: "a list", strlist: "a list of text", color: "a #rrggbb colour" };
 
+const NO_ARGS: readonly Compiled[] = Object.freeze([]);
+const NO_EVS: readonly Ev[] = Object.freeze([]);
+
 function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   const input = compileExpr(env, e.input);
-  const args = e.args.map((a) => compileExpr(env, a));
+  // Most filters take no arguments: no arrays for them (these two are only ever read).
+  const args = e.args.length === 0 ? NO_ARGS : e.args.map((a) => compileExpr(env, a));
   const def: FilterDef | undefined = FILTERS.get(e.name);
   if (!def) {
     const hint = suggest(e.name, FILTERS.keys());
@@ -300,7 +304,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   const inp = input.ev;
   const from = spanFrom(env, e.nameFrom);
   const to = spanTo(env, e.nameTo);
-  const argEvs = args.map((a) => a.ev);
+  const argEvs = args.length === 0 ? NO_EVS : args.map((a) => a.ev);
   const name = e.name;
   let ev: Ev;
   if (argEvs.length === 0) {
