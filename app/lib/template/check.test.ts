@@ -8,6 +8,18 @@ const errorsOf = (src: string) => {
 };
 
 describe("schema check at compile time", () => {
+  it("checks filters with and without arguments the same way after types are shared", () => {
+    // The C text filters share their output types; a compile must not change them for the next.
+    for (let i = 0; i < 2; i++) {
+      const c = compileTemplate("@[ target c ]@@( meta.clientName |> cstr )@ @( meta.buildName |> cstr |> upper )@ @( meta.revision |> default(0) |> cint )@", { cache: false });
+      expect(c).toMatchObject({ ok: true, warnings: [] });
+    }
+    expect(errorsOf("@( meta.buildName |> cstr(1) )@")[0].message).toBe("filter 'cstr' takes 0 arguments, got 1");
+    // Field chains are checked innermost first; a prototype member is never a field.
+    expect(errorsOf("@( config.rig.constructor.name )@").map((e) => e.message)).toEqual(["unknown field 'constructor' on rig"]);
+    expect(errorsOf("@( meta.bildName.x.y )@")[0].message).toBe("unknown field 'bildName' on meta — did you mean 'buildName'?");
+  });
+
   it("suggests the intended field for a misspelt one", () => {
     const src = "@[ over config.presets as p ]@@[ over p.looks.blade.layers as layer ]@@( layer.sped )@@[ /over ]@@[ /over ]@";
     const [e] = errorsOf(src);
