@@ -3,7 +3,7 @@ import { data, Form, useActionData, useNavigation } from "react-router";
 import { Field, Select } from "~/components/Field";
 import { requireViewer } from "~/lib/auth.server";
 import { loadBuildFor } from "~/lib/build-access.server";
-import { fieldErrors } from "~/lib/build-forms";
+import { fieldErrors } from "~/lib/form-errors";
 import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/schema";
 import { db } from "~/lib/db.server";
 import { can } from "~/lib/permissions";

@@ -1,6 +1,7 @@
 import { Form, redirect, useActionData } from "react-router";
 import { requireViewer } from "~/lib/auth.server";
-import { buildMetaSchema, fieldErrors } from "~/lib/build-forms";
+import { buildMetaSchema } from "~/lib/build-forms";
+import { fieldErrors } from "~/lib/form-errors";
 import { starterConfig } from "~/lib/config/starter";
 import { db } from "~/lib/db.server";
 import { createBuild, listClients } from "~/lib/repo/builds.server";

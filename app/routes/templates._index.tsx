@@ -9,6 +9,7 @@ import { createTemplate, getTemplateVersion, listTemplates } from "~/lib/repo/te
 import { BUILTIN_TEMPLATES } from "~/lib/template";
 import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
 import type { Route } from "./+types/templates._index";
+import { fieldErrors } from "~/lib/form-errors";
 
 export const meta: Route.MetaFunction = () => [{ title: "Templates · Hiltbench" }];
 
@@ -45,9 +46,7 @@ export async function action({ request }: Route.ActionArgs) {
   const form = await request.formData();
   const parsed = NewTemplate.safeParse({ name: form.get("name") ?? "", from: form.get("from") ?? "" });
   if (!parsed.success) {
-    const fieldErrors: ActionAnswer["fieldErrors"] = {};
-    for (const issue of parsed.error.issues) fieldErrors[issue.path[0] as "name" | "from"] ??= issue.message;
-    return data<ActionAnswer>({ fieldErrors }, { status: 400 });
+    return data<ActionAnswer>({ fieldErrors: fieldErrors(parsed.error) }, { status: 400 });
   }
   const { name, from } = parsed.data;
   if (isBuiltinName(name)) return data<ActionAnswer>({ fieldErrors: { name: `'${name}' is a built-in template's name; choose another.` } }, { status: 400 });

@@ -1,7 +1,7 @@
 import { data, Form, useActionData } from "react-router";
 import { z } from "zod";
 import { requireViewer } from "~/lib/auth.server";
-import { fieldErrors } from "~/lib/build-forms";
+import { fieldErrors } from "~/lib/form-errors";
 import { db } from "~/lib/db.server";
 import { ROLES } from "~/lib/db/types";
 import { fail } from "~/lib/http.server";
