@@ -27,7 +27,9 @@ export function parseTemplate(source: string, limits: Limits = DEFAULT_LIMITS): 
   const failures: TemplateFailure[] = [];
   let ast: TemplateAst | null = null;
   try {
-    ast = parse(applyWhitespace(tokenize(source)), failures, limits.maxDepth);
+    const lexed = tokenize(source);
+    applyWhitespace(lexed);
+    ast = parse(lexed, failures, limits.maxDepth);
   } catch (e) {
     if (!(e instanceof TemplateFailure)) throw e;
     failures.push(e);

@@ -1,86 +1,95 @@
 // Stage 2b: the expression grammar inside one tag, loosest first:
 //   or → and → not → comparison → + - → * / % → unary - → postfix (.field, [index]) → primary
 // with filters (`|> name(args)`) binding loosest of all, so `a + b |> fixed(2)` formats the sum.
+// The cursor walks token indices of the lexer's typed arrays and compares kinds, not strings.
 import type { BinaryOp, Expr } from "./ast";
 import { TemplateFailure } from "./errors";
-import type { Piece, Tok } from "./tokenize";
+import type { Piece } from "./tokenize";
+import {
+  CLOSER, COMMA, DOT, EQ, GE, GT, IDENT, KW_AND, KW_FALSE, KW_NOT, KW_NOTHING, KW_OR, KW_TRUE, LBRACK, LE, LPAREN, LT, MINUS, NE, NUM,
+  OP_TEXT, PERCENT, PIPE, PLUS, RBRACK, RPAREN, SLASH, STAR, STR, Tokens,
+} from "./tokenize";
 
-export const KEYWORDS = new Set(["and", "or", "not", "true", "false", "nothing"]);
-const CMP = ["==", "!=", "<", "<=", ">", ">="];
-
-/** Expression parser over the tokens of one tag. */
+/** Expression parser over the tokens of one tag (`i` up to `end`). */
 export class Cursor {
   private nest = 0;
   constructor(
-    private toks: Tok[],
-    private i: number,
+    readonly toks: Tokens,
+    public i: number,
+    private end: number,
     private piece: Piece,
     private depth: number,
     private maxDepth: number,
   ) {}
-  peekTok(): Tok | undefined {
-    return this.toks[this.i];
+  /** The kind of the current token, or -1 at the end of the tag. */
+  kind(): number {
+    return this.i < this.end ? this.toks.kind[this.i] : -1;
   }
-  peek(op: string): boolean {
-    const t = this.toks[this.i];
-    return !!t && t.kind !== "str" && t.value === op;
+  /** Whether the current token is the operator of kind `op`. */
+  peek(op: number): boolean {
+    return this.i < this.end && this.toks.kind[this.i] === op;
   }
-  next(): Tok | undefined {
-    return this.toks[this.i++];
+  atEnd(): boolean {
+    return this.i >= this.end;
   }
-  private fail(msg: string, t?: Tok): TemplateFailure {
-    const at = t ?? this.toks[this.i];
-    return at ? new TemplateFailure("parse", msg, at.from, at.to) : new TemplateFailure("parse", msg, this.piece.to - 2, this.piece.to);
+  /** What the current token looks like in a message. */
+  shown(): string {
+    return this.toks.text(this.i);
   }
-  op(op: string) {
-    if (!this.peek(op)) throw this.fail(`expected '${op}'${this.toks[this.i] ? ` but found '${this.toks[this.i].value}'` : " before the end of the tag"}`);
+  fail(msg: string, at = this.i): TemplateFailure {
+    return at < this.end
+      ? new TemplateFailure("parse", msg, this.toks.from[at], this.toks.to[at])
+      : new TemplateFailure("parse", msg, this.piece.to - 2, this.piece.to);
+  }
+  op(op: number) {
+    if (!this.peek(op)) throw this.fail(`expected '${OP_TEXT[op]}'${this.i < this.end ? ` but found '${this.shown()}'` : " before the end of the tag"}`);
     this.i++;
   }
   keyword(word: string) {
-    const t = this.toks[this.i];
-    if (!t || t.kind !== "ident" || t.value !== word) throw this.fail(`expected '${word}'`);
+    if (this.i >= this.end || this.toks.kind[this.i] !== IDENT || !this.toks.is(this.i, word)) throw this.fail(`expected '${word}'`);
     this.i++;
   }
   name(what: string): string {
-    const t = this.toks[this.i];
-    if (!t || t.kind !== "ident" || KEYWORDS.has(t.value)) throw this.fail(`expected ${what}`);
-    this.i++;
-    return t.value;
+    if (this.i >= this.end || this.toks.kind[this.i] !== IDENT) throw this.fail(`expected ${what}`);
+    return this.toks.text(this.i++);
   }
-  end() {
-    if (this.i < this.toks.length) throw this.fail(`unexpected '${this.toks[this.i].value}' at the end of the tag`);
+  done() {
+    if (this.i < this.end) throw this.fail(`unexpected '${this.shown()}' at the end of the tag`);
   }
   exprToEnd(): Expr {
     const e = this.expr();
-    this.end();
+    this.done();
     return e;
   }
   exprUntil(word: string): Expr {
     const e = this.expr();
-    if (!this.toks[this.i] || this.toks[this.i].value !== word) throw this.fail(`expected '${word}'`);
+    if (this.i >= this.end || !this.toks.is(this.i, word)) throw this.fail(`expected '${word}'`);
     return e;
   }
   expr(): Expr {
     if (++this.nest + this.depth > this.maxDepth) throw this.fail(`expression nested deeper than the limit of ${this.maxDepth}`);
     let e = this.or();
-    while (this.peek("|>")) {
+    while (this.peek(PIPE)) {
       this.i++;
-      const nameTok = this.toks[this.i];
-      if (!nameTok || nameTok.kind !== "ident") throw this.fail("expected a filter name after '|>'");
+      const at = this.i;
+      if (at >= this.end || this.toks.kind[at] !== IDENT) throw this.fail("expected a filter name after '|>'");
       this.i++;
-      const args: Expr[] = [];
-      let to = nameTok.to;
-      if (this.peek("(")) {
+      const nameFrom = this.toks.from[at];
+      const nameTo = this.toks.to[at];
+      let args: Expr[] = NO_ARGS;
+      let to = nameTo;
+      if (this.peek(LPAREN)) {
         this.i++;
-        while (!this.peek(")")) {
+        args = [];
+        while (!this.peek(RPAREN)) {
           args.push(this.expr());
-          if (!this.peek(",")) break;
+          if (!this.peek(COMMA)) break;
           this.i++;
         }
-        to = this.toks[this.i]?.to ?? to;
-        this.op(")");
+        if (this.i < this.end) to = this.toks.to[this.i];
+        this.op(RPAREN);
       }
-      e = { k: "filter", input: e, name: nameTok.value, args, nameFrom: nameTok.from, nameTo: nameTok.to, from: e.from, to };
+      e = { k: "filter", input: e, name: this.toks.text(at), args, nameFrom, nameTo, from: e.from, to };
     }
     this.nest--;
     return e;
@@ -89,7 +98,7 @@ export class Cursor {
   // expression is parsed on every keystroke in the editor.
   private or(): Expr {
     let left = this.and();
-    for (let t = this.toks[this.i]; t && t.kind === "ident" && t.value === "or"; t = this.toks[this.i]) {
+    while (this.peek(KW_OR)) {
       this.i++;
       const right = this.and();
       left = { k: "binary", op: "or", left, right, from: left.from, to: right.to };
@@ -98,7 +107,7 @@ export class Cursor {
   }
   private and(): Expr {
     let left = this.not();
-    for (let t = this.toks[this.i]; t && t.kind === "ident" && t.value === "and"; t = this.toks[this.i]) {
+    while (this.peek(KW_AND)) {
       this.i++;
       const right = this.not();
       left = { k: "binary", op: "and", left, right, from: left.from, to: right.to };
@@ -106,86 +115,102 @@ export class Cursor {
     return left;
   }
   private not(): Expr {
-    const t = this.toks[this.i];
-    if (t && t.kind === "ident" && t.value === "not") {
-      this.i++;
+    if (this.peek(KW_NOT)) {
+      const from = this.toks.from[this.i++];
       const arg = this.not();
-      return { k: "unary", op: "not", arg, from: t.from, to: arg.to };
+      return { k: "unary", op: "not", arg, from, to: arg.to };
     }
     return this.cmp();
   }
   private cmp(): Expr {
     const left = this.add();
-    const t = this.toks[this.i];
-    if (t && t.kind === "op" && CMP.includes(t.value)) {
+    const k = this.kind();
+    if (k === EQ || k === NE || k === LT || k === LE || k === GT || k === GE) {
       this.i++;
       const right = this.add();
-      return { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
+      return { k: "binary", op: OP_TEXT[k] as BinaryOp, left, right, from: left.from, to: right.to };
     }
     return left;
   }
   private add(): Expr {
     let left = this.mul();
-    for (let t = this.toks[this.i]; t && t.kind === "op" && (t.value === "+" || t.value === "-"); t = this.toks[this.i]) {
+    for (let k = this.kind(); k === PLUS || k === MINUS; k = this.kind()) {
       this.i++;
       const right = this.mul();
-      left = { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
+      left = { k: "binary", op: OP_TEXT[k] as BinaryOp, left, right, from: left.from, to: right.to };
     }
     return left;
   }
   private mul(): Expr {
     let left = this.unary();
-    for (let t = this.toks[this.i]; t && t.kind === "op" && (t.value === "*" || t.value === "/" || t.value === "%"); t = this.toks[this.i]) {
+    for (let k = this.kind(); k === STAR || k === SLASH || k === PERCENT; k = this.kind()) {
       this.i++;
       const right = this.unary();
-      left = { k: "binary", op: t.value as BinaryOp, left, right, from: left.from, to: right.to };
+      left = { k: "binary", op: OP_TEXT[k] as BinaryOp, left, right, from: left.from, to: right.to };
     }
     return left;
   }
   private unary(): Expr {
-    const t = this.toks[this.i];
-    if (t && t.kind === "op" && t.value === "-") {
-      this.i++;
+    if (this.peek(MINUS)) {
+      const from = this.toks.from[this.i++];
       const arg = this.unary();
-      return { k: "unary", op: "-", arg, from: t.from, to: arg.to };
+      return { k: "unary", op: "-", arg, from, to: arg.to };
     }
     return this.postfix();
   }
   private postfix(): Expr {
     let e = this.primary();
     for (;;) {
-      if (this.peek(".")) {
+      const k = this.kind();
+      if (k === DOT) {
         this.i++;
-        const t = this.toks[this.i];
-        if (!t || t.kind !== "ident") throw this.fail("expected a field name after '.'");
+        const at = this.i;
+        if (at >= this.end || this.toks.kind[at] !== IDENT) throw this.fail("expected a field name after '.'");
         this.i++;
-        e = { k: "get", obj: e, key: t.value, keyFrom: t.from, from: e.from, to: t.to };
-      } else if (this.peek("[")) {
+        e = { k: "get", obj: e, key: this.toks.text(at), keyFrom: this.toks.from[at], from: e.from, to: this.toks.to[at] };
+      } else if (k === LBRACK) {
         this.i++;
         const key = this.expr();
-        const end = this.toks[this.i];
-        this.op("]");
-        e = { k: "index", obj: e, key, from: e.from, to: end.to };
+        const at = this.i;
+        this.op(RBRACK);
+        e = { k: "index", obj: e, key, from: e.from, to: this.toks.to[at] };
       } else return e;
     }
   }
   private primary(): Expr {
-    const t = this.toks[this.i];
-    if (!t) throw this.fail("expected a value before the end of the tag");
-    this.i++;
-    if (t.kind === "num") return { k: "lit", value: Number(t.value), from: t.from, to: t.to };
-    if (t.kind === "str") return { k: "lit", value: t.value, from: t.from, to: t.to };
-    if (t.kind === "ident") {
-      if (t.value === "true" || t.value === "false") return { k: "lit", value: t.value === "true", from: t.from, to: t.to };
-      if (t.value === "nothing") return { k: "lit", value: null, from: t.from, to: t.to };
-      if (KEYWORDS.has(t.value)) throw this.fail(`'${t.value}' cannot start a value`, t);
-      return { k: "var", name: t.value, from: t.from, to: t.to };
+    if (this.i >= this.end) throw this.fail("expected a value before the end of the tag");
+    const at = this.i++;
+    const toks = this.toks;
+    const from = toks.from[at];
+    const to = toks.to[at];
+    switch (toks.kind[at]) {
+      case NUM:
+        return { k: "lit", value: Number(toks.text(at)), from, to };
+      case STR:
+        return { k: "lit", value: toks.str(at), from, to };
+      case IDENT:
+        return { k: "var", name: toks.text(at), from, to };
+      case KW_TRUE:
+        return { k: "lit", value: true, from, to };
+      case KW_FALSE:
+        return { k: "lit", value: false, from, to };
+      case KW_NOTHING:
+        return { k: "lit", value: null, from, to };
+      case KW_AND:
+      case KW_OR:
+      case KW_NOT:
+      case CLOSER:
+        throw this.fail(`'${toks.text(at)}' cannot start a value`, at);
+      case LPAREN: {
+        const e = this.expr();
+        this.op(RPAREN);
+        return e;
+      }
+      default:
+        throw this.fail(`expected a value but found '${toks.text(at)}'`, at);
     }
-    if (t.value === "(") {
-      const e = this.expr();
-      this.op(")");
-      return e;
-    }
-    throw this.fail(`expected a value but found '${t.value}'`, t);
   }
 }
+
+/** Shared by every filter without arguments; nothing ever adds to it. */
+const NO_ARGS: Expr[] = Object.freeze([]) as unknown as Expr[];
