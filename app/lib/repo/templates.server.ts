@@ -2,6 +2,7 @@
 // version row; nothing here ever updates a version. Every read is scoped to the workshop.
 import type { Kysely } from "kysely";
 import type { Database } from "../db/types";
+import { partialsUsed } from "../template/partials-used";
 import { isUuid } from "./builds.server";
 
 type Db = Kysely<Database>;
@@ -114,6 +115,93 @@ export async function saveTemplateVersion(db: Db, workshopId: string, id: string
   if (r) return { kind: "saved", version: r.version };
   const latest = await getTemplateVersion(db, workshopId, id);
   return { kind: "stale", latest: latest?.version ?? 0 };
+}
+
+/** PostgreSQL's foreign_key_violation: a row still refers to one being deleted, or no longer exists. */
+export function isForeignKeyViolation(e: unknown): boolean {
+  return typeof e === "object" && e !== null && (e as { code?: unknown }).code === "23503";
+}
+
+/** What stops a template from being deleted; every list empty means nothing depends on it. */
+export type TemplateDependents = {
+  /** Builds (archived ones too) pinned to one of its versions. */
+  pinnedBy: { id: string; name: string; version: number; archived: boolean }[];
+  /** Other templates whose latest version uses it as a partial. */
+  usedBy: { id: string; name: string }[];
+  /** Builds pinned to an older version of another template, and that version uses it. */
+  usedThroughPins: { id: string; name: string; template: string; version: number }[];
+};
+
+export const hasDependents = (d: TemplateDependents) => d.pinnedBy.length + d.usedBy.length + d.usedThroughPins.length > 0;
+
+/** One sentence naming everything that depends on the template, for a 409 and for the page. */
+export function describeDependents(name: string, d: TemplateDependents): string {
+  const parts: string[] = [];
+  const builds = (xs: { name: string; archived?: boolean; version: number }[]) =>
+    xs.map((b) => `${b.name}${b.archived ? " (archived)" : ""} (v${b.version})`).join(", ");
+  if (d.pinnedBy.length) parts.push(`${d.pinnedBy.length === 1 ? "build" : "builds"} ${builds(d.pinnedBy)} ${d.pinnedBy.length === 1 ? "is" : "are"} pinned to it`);
+  if (d.usedBy.length) parts.push(`${d.usedBy.length === 1 ? "template" : "templates"} ${d.usedBy.map((t) => t.name).join(", ")} ${d.usedBy.length === 1 ? "uses" : "use"} it as a partial`);
+  for (const b of d.usedThroughPins) parts.push(`build ${b.name} is pinned to ${b.template} v${b.version}, which uses it`);
+  return `'${name}' cannot be deleted: ${parts.join("; ")}. Nothing was deleted.`;
+}
+
+/** Builds and templates of the workshop that would break if template `id` (named `name`) went. */
+export async function templateDependents(db: Db, workshopId: string, id: string, name: string): Promise<TemplateDependents> {
+  const pins = await db
+    .selectFrom("builds as b")
+    .innerJoin("template_versions as v", (j) => j.onRef("v.template_id", "=", "b.pinned_template_id").onRef("v.version", "=", "b.pinned_template_version"))
+    .innerJoin("templates as t", "t.id", "v.template_id")
+    .select(["b.id", "b.name", "b.archived_at", "t.id as template_id", "t.name as template_name", "v.version", "v.source"])
+    .where("b.workshop_id", "=", workshopId)
+    .orderBy("b.name")
+    .execute();
+  const latest = await db
+    .selectFrom("template_versions as v")
+    .innerJoin("templates as t", "t.id", "v.template_id")
+    .select(["t.id", "t.name", "v.source"])
+    .where("t.workshop_id", "=", workshopId)
+    .where("t.id", "!=", id)
+    .where("v.version", "=", (eb) => eb.selectFrom("template_versions as w").select((e) => e.fn.max("w.version").as("m")).whereRef("w.template_id", "=", "t.id"))
+    .orderBy("t.name")
+    .execute();
+  const usedBy = latest.filter((t) => partialsUsed(t.source).has(name)).map((t) => ({ id: t.id, name: t.name }));
+  const latestSource = new Map(latest.map((t) => [t.id, t.source]));
+  return {
+    pinnedBy: pins.filter((p) => p.template_id === id).map((p) => ({ id: p.id, name: p.name, version: p.version, archived: p.archived_at !== null })),
+    usedBy,
+    // A pin on another template's latest version is already covered by usedBy.
+    usedThroughPins: pins
+      .filter((p) => p.template_id !== id && latestSource.get(p.template_id) !== p.source && partialsUsed(p.source).has(name))
+      .map((p) => ({ id: p.id, name: p.name, template: p.template_name, version: p.version })),
+  };
+}
+
+export type DeleteResult = { kind: "deleted"; name: string; versions: number } | { kind: "missing" } | { kind: "in-use"; name: string; dependents: TemplateDependents };
+
+/**
+ * Delete a workshop template and all its versions, in one transaction, unless something
+ * depends on it. The template row is locked first: a build being pinned to it at the same
+ * moment either commits before the check (and is found) or waits and then fails its foreign
+ * key; should a pin slip in anyway, the RESTRICT foreign key refuses the delete.
+ */
+export async function deleteTemplate(db: Db, workshopId: string, id: string): Promise<DeleteResult> {
+  if (!isUuid(id)) return { kind: "missing" };
+  try {
+    return await db.transaction().execute(async (trx) => {
+      const t = await trx.selectFrom("templates").select(["id", "name"]).where("workshop_id", "=", workshopId).where("id", "=", id).forUpdate().executeTakeFirst();
+      if (!t) return { kind: "missing" } as const;
+      const dependents = await templateDependents(trx, workshopId, id, t.name);
+      if (hasDependents(dependents)) return { kind: "in-use", name: t.name, dependents } as const;
+      const count = await trx.selectFrom("template_versions").select((e) => e.fn.countAll<string>().as("n")).where("template_id", "=", id).executeTakeFirstOrThrow();
+      await trx.deleteFrom("templates").where("id", "=", id).execute();
+      return { kind: "deleted", name: t.name, versions: Number(count.n) } as const;
+    });
+  } catch (e) {
+    if (!isForeignKeyViolation(e)) throw e;
+    const t = await getTemplate(db, workshopId, id);
+    if (!t) return { kind: "missing" };
+    return { kind: "in-use", name: t.name, dependents: await templateDependents(db, workshopId, id, t.name) };
+  }
 }
 
 /** Pin a build to a template version (both null: back to the built-in generic header). */
