@@ -576,6 +576,10 @@ function time(fn: () => void, minMs: number): number {
 
 const fmt = (us: number) => (us >= 1000 ? `${(us / 1000).toFixed(2)} ms` : `${us.toFixed(1)} µs`);
 
+let edit = 0;
+let sink = 0;
+const liquidEngine = new Liquid({ strictFilters: false, greedy: true });
+
 export async function run(): Promise<void> {
   const source = readFileSync(fileURLToPath(new URL("../../templates/generic-header.hbt", import.meta.url)), "utf8");
   const config = demoConfig();
@@ -610,9 +614,22 @@ export async function run(): Promise<void> {
       templateCache.clear();
       compileTemplate(source);
     },
+    // The editor's path: a source never seen before (one edit), with no caches at all.
+    edited: () => compileTemplate(`${source}@# ${edit++} #@`, { cache: false }),
     // A resolver makes compile skip its own cache, leaving only the parse cached.
     check: () => compileTemplate(source, { partials: () => undefined }),
     warm: () => compileTemplate(source),
+    // References for compiling: Handlebars turning the equivalent template into its JavaScript
+    // source (parse and code generation; running that source would need eval), liquidjs parsing
+    // its equivalent, and the floor for any lexer: reading every character of the source once.
+    hbsCompile: () => Handlebars.precompile(HBS, { noEscape: true, strict: false }),
+    liquidParse: () => liquidEngine.parse(LIQUID),
+    floor: () => {
+      const s = `${source}@# ${edit++} #@`;
+      let h = 0;
+      for (let i = 0; i < s.length; i++) h = (h + s.charCodeAt(i)) | 0;
+      sink ^= h;
+    },
   };
   const best: Record<string, number> = {};
   for (let round = 0; round < 5; round++) {
@@ -623,9 +640,19 @@ export async function run(): Promise<void> {
   console.log(`ratio   Handlebars / ours = ${(tHbs / tOurs).toFixed(2)}× (target ≥ 1.5×)`);
   console.log(`ratio   ours / hand-written JS = ${(tOurs / tJs).toFixed(2)}× (stretch ≤ 2×)`);
   console.log(`ratio   liquidjs / ours = ${(tLiquid / tOurs).toFixed(1)}×`);
+  const { edited: tEdited, hbsCompile: tHbsCompile, liquidParse: tLiquidParse, floor: tFloor } = best;
+  // The issue set its targets on a machine where the hand-written renderer took about 41 µs; the
+  // same target on this machine scales with the hand-written renderer measured in this run.
+  const scaled = (100 * tJs) / 41;
   console.log(
-    `compile generic-header (${source.length} chars): ${fmt(tCompile)} cold (tokenize, parse, check, closures), ${fmt(tCheck)} with the parse cached, ${fmt(tWarm)} for a template version already compiled (target < 100 µs)`,
+    `compile generic-header (${source.length} chars): ${fmt(tEdited)} after an edit (editor path, no caches: tokenize, parse, check, closures), ${fmt(tCompile)} cold, ${fmt(tCheck)} with the parse cached, ${fmt(tWarm)} for a version already compiled`,
   );
+  console.log(`ratio   Handlebars precompile / ours = ${(tHbsCompile / tEdited).toFixed(1)}× (${fmt(tHbsCompile)}); liquidjs parse / ours = ${(tLiquidParse / tEdited).toFixed(1)}× (${fmt(tLiquidParse)})`);
+  console.log(`ratio   ours / one read of every character = ${(tEdited / tFloor).toFixed(1)}× (${fmt(tFloor)})`);
+  console.log(
+    `target  compile < 100 µs where hand-written JS renders in 41 µs: ${fmt(scaled)} on this machine (hand-written ${fmt(tJs)} here); ours ${fmt(tEdited)} = ${(tEdited / scaled).toFixed(2)}× of it${tEdited <= 100 ? "; under 100 µs outright" : ""}`,
+  );
+  if (sink === 0.5) console.log(sink);
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) await run();

@@ -125,7 +125,22 @@ export function compileExpr(env: Env, e: Expr): Compiled {
 }
 
 function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
-  // Collapse a chain a.b.c into one closure over a fixed key list.
+  // Collapse a chain a.b.c into one closure over its keys. Chains of one or two keys (nearly
+  // all of them) are read without arrays.
+  const inner = e.obj;
+  if (inner.k !== "get" || inner.obj.k === "get") {
+    if (inner.k !== "get") {
+      const root = compileExpr(env, inner);
+      const ty = fieldType(env, root.ty, e.key, e.keyFrom, e.to);
+      return { ev: PROTO_KEYS.has(e.key) ? readChain(root.ev, [e.key]) : read1(root.ev, e.key), ty, cSafe: false };
+    }
+  } else {
+    const root = compileExpr(env, inner.obj);
+    const mid = fieldType(env, root.ty, inner.key, inner.keyFrom, inner.to);
+    const ty = fieldType(env, mid, e.key, e.keyFrom, e.to);
+    const ev = PROTO_KEYS.has(inner.key) || PROTO_KEYS.has(e.key) ? readChain(root.ev, [inner.key, e.key]) : read2(root.ev, inner.key, e.key);
+    return { ev, ty, cSafe: false };
+  }
   let base: Expr = e;
   let depth = 0;
   while (base.k === "get") {
@@ -143,30 +158,32 @@ function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
     keys[i] = g.key;
     ty = fieldType(env, ty, g.key, g.keyFrom, g.to);
   }
-  const r = root.ev;
-  let ev: Ev;
-  // Keys are fixed here, so only keys that could reach a prototype pay for the own-key check.
-  if (keys.length === 1 && !PROTO_KEYS.has(keys[0])) {
-    const k0 = keys[0];
-    ev = anon((c) => {
-      const o = r(c);
-      return o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
-    });
-  } else if (keys.length === 2 && !PROTO_KEYS.has(keys[0]) && !PROTO_KEYS.has(keys[1])) {
-    const [k0, k1] = keys;
-    ev = anon((c) => {
-      const o = r(c);
-      const m = o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
-      return m !== null && typeof m === "object" && !Array.isArray(m) ? (m as Record<string, unknown>)[k1] : undefined;
-    });
-  } else {
-    ev = anon((c) => {
-      let v = r(c);
-      for (let i = 0; i < keys.length; i++) v = readKey(v, keys[i]);
-      return v;
-    });
-  }
-  return { ev, ty, cSafe: false };
+  return { ev: readChain(root.ev, keys), ty, cSafe: false };
+}
+
+// Keys are fixed at compile time, so only keys that could reach a prototype pay for the
+// own-key check of `readKey`.
+function read1(r: Ev, k0: string): Ev {
+  return (c) => {
+    const o = r(c);
+    return o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
+  };
+}
+
+function read2(r: Ev, k0: string, k1: string): Ev {
+  return (c) => {
+    const o = r(c);
+    const m = o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
+    return m !== null && typeof m === "object" && !Array.isArray(m) ? (m as Record<string, unknown>)[k1] : undefined;
+  };
+}
+
+function readChain(r: Ev, keys: string[]): Ev {
+  return (c) => {
+    let v = r(c);
+    for (let i = 0; i < keys.length; i++) v = readKey(v, keys[i]);
+    return v;
+  };
 }
 
 function fieldType(env: Env, ty: Ty, key: string, from: number, to: number): Ty {

@@ -29,8 +29,10 @@ function withScope(env: Env, scope: Scope, unit: Unit = env.unit, stack: string[
 
 export function compileBody(env: Env, nodes: Node[]): Run {
   const runs: Run[] = [];
-  const scope = new Scope(env.scope);
-  const inner: Env = withScope(env, scope);
+  // Only 'let' binds into the block's own scope; most blocks have none and share the outer one.
+  let binds = false;
+  for (let i = 0; i < nodes.length && !binds; i++) binds = nodes[i].k === "let";
+  const inner: Env = binds ? withScope(env, new Scope(env.scope)) : env;
   for (const n of nodes) {
     const r = compileNode(inner, n);
     if (r) runs.push(r);

@@ -21,6 +21,15 @@ export class Cursor {
     private depth: number,
     private maxDepth: number,
   ) {}
+  /** Points the cursor at another tag; a parse uses one cursor for all its tags. */
+  reset(i: number, end: number, piece: Piece, depth: number): this {
+    this.i = i;
+    this.end = end;
+    this.piece = piece;
+    this.depth = depth;
+    this.nest = 0;
+    return this;
+  }
   /** The kind of the current token, or -1 at the end of the tag. */
   kind(): number {
     return this.i < this.end ? this.toks.kind[this.i] : -1;

@@ -193,8 +193,10 @@ export function parse({ pieces, toks }: Lexed, errors: TemplateFailure[], maxDep
     }
   }
 
+  // One cursor serves every tag: a statement is done with its cursor before its body is parsed.
+  const shared = new Cursor(toks, 0, 0, pieces[0], 0, maxDepth);
   function cursor(p: Piece, skip: number, depth: number): Cursor {
-    return new Cursor(toks, p.t0 + skip, p.t1, p, depth, maxDepth);
+    return shared.reset(p.t0 + skip, p.t1, p, depth);
   }
 
   function wholeExpr(p: Piece, depth: number): Expr {
