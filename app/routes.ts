@@ -8,6 +8,7 @@ export default [
   route("logout", "routes/logout.ts"),
   route("healthz", "routes/healthz.ts"),
   route("builds/:buildId/config.json", "routes/builds.$buildId.config-json.ts"),
+  route("templates/:templateId/compare.patch", "routes/templates.$templateId.compare-patch.ts"),
 
   layout("routes/app-layout.tsx", [
     route("builds", "routes/builds._index.tsx"),

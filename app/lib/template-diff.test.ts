@@ -38,7 +38,7 @@ describe("template version diffs", () => {
   });
 
   it("says so when two versions are the same, and gives up on a wholesale rewrite", () => {
-    expect(diffVersions("x", v(1, "same\n"), v(2, "same\n"))).toEqual({ kind: "same" });
+    expect(diffVersions("x", v(1, "same\n"), v(2, "same\n"))).toEqual({ kind: "same", patch: "--- x@v1\n+++ x@v2\n" });
     const lines = (p: string) => Array.from({ length: MAX_EDIT_LINES + 10 }, (_, i) => `${p}${i}`).join("\n");
     expect(diffVersions("x", v(1, lines("old")), v(2, lines("new")))).toEqual({ kind: "too-large", limit: MAX_EDIT_LINES });
   });

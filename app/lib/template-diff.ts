@@ -13,7 +13,7 @@ export type DiffRow = (
 export type DiffHunk = { oldStart: number; oldLines: number; newStart: number; newLines: number; rows: DiffRow[] };
 
 export type VersionDiff =
-  | { kind: "same" }
+  | { kind: "same"; patch: string }
   | { kind: "changed"; added: number; removed: number; hunks: DiffHunk[]; patch: string }
   /** Too different to diff within the budget below (a whole rewrite of a long template). */
   | { kind: "too-large"; limit: number };
@@ -21,8 +21,8 @@ export type VersionDiff =
 /** Lines of unchanged text shown around each change. */
 export const CONTEXT_LINES = 3;
 /**
- * The diff gives up past this many changed lines (or after half a second): Myers' algorithm costs about N·D, and a
- * 256 KB template rewritten from scratch would hold the server for seconds.
+ * The diff gives up past this many changed lines (or after half a second): Myers' algorithm
+ * costs about N·D, and a 256 KB template rewritten from scratch would hold the server for seconds.
  */
 export const MAX_EDIT_LINES = 1500;
 
@@ -39,13 +39,15 @@ export function parseCompare(value: string): [number, number] | null {
 export const versionLabel = (name: string, version: number) => `${name}@v${version}`;
 
 export function diffVersions(name: string, from: { version: number; source: string }, to: { version: number; source: string }): VersionDiff {
-  if (from.source === to.source) return { kind: "same" };
   const p: StructuredPatch | undefined = structuredPatch(versionLabel(name, from.version), versionLabel(name, to.version), from.source, to.source, undefined, undefined, {
     context: CONTEXT_LINES,
     maxEditLength: MAX_EDIT_LINES,
     timeout: 500,
   });
   if (!p) return { kind: "too-large", limit: MAX_EDIT_LINES };
+  // The patch file is the same structured diff written out, so the page and the file agree.
+  const patch = formatPatch(p, FILE_HEADERS_ONLY);
+  if (p.hunks.length === 0) return { kind: "same", patch };
   let added = 0;
   let removed = 0;
   const hunks = p.hunks.map((h): DiffHunk => {
@@ -70,8 +72,7 @@ export function diffVersions(name: string, from: { version: number; source: stri
     }
     return { oldStart: h.oldStart, oldLines: h.oldLines, newStart: h.newStart, newLines: h.newLines, rows };
   });
-  // The patch file is the same structured diff written out, so the page and the file agree.
-  return { kind: "changed", added, removed, hunks, patch: formatPatch(p, FILE_HEADERS_ONLY) };
+  return { kind: "changed", added, removed, hunks, patch };
 }
 
 /** A plain ASCII file name for the downloaded patch. */

@@ -11,7 +11,7 @@ import { validateConfig, type Diagnostic } from "~/lib/config/validate";
 import { db } from "~/lib/db.server";
 import { fail } from "~/lib/http.server";
 import { can } from "~/lib/permissions";
-import { getTemplateVersion, listTemplates, pinTemplate } from "~/lib/repo/templates.server";
+import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate } from "~/lib/repo/templates.server";
 import { readHeader, type ReadError } from "~/lib/template";
 import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
 import { pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/templates.server";
@@ -87,7 +87,13 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (!Number.isInteger(version) || version < 1) fail(400, "Say which version of the template to pin.");
     const t = await getTemplateVersion(db(), v.workshop.id, ref, version);
     if (!t) fail(404, "No such template version in your workshop.");
-    await pinTemplate(db(), v.workshop.id, b.id, { templateId: t.id, version: t.version });
+    try {
+      await pinTemplate(db(), v.workshop.id, b.id, { templateId: t.id, version: t.version });
+    } catch (e) {
+      // The template was deleted between the check above and the pin: nothing changed.
+      if (isForeignKeyViolation(e)) fail(409, "This template was deleted just now; the build keeps its template.");
+      throw e;
+    }
     return data({ intent: "pin" as const, ok: true });
   }
   if (intent === "apply") {

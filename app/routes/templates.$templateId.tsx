@@ -1,10 +1,14 @@
 // One template: the source in an editor with our language's highlighting, live diagnostics and
 // a live preview rendered in the browser against a build's config. Saving stores a new version
 // (only a source that compiles); built-ins and readers without edit:template see it read-only.
+// `?compare=2..3` shows the line changes between two versions; people with edit:template can
+// delete a workshop template that nothing depends on (decision 006).
 import type { Diagnostic as CmDiagnostic } from "@codemirror/lint";
 import { useEffect, useMemo, useState } from "react";
-import { data, Form, Link, useFetcher, useSubmit } from "react-router";
+import { data, Form, Link, redirect, useFetcher, useSubmit } from "react-router";
 import { CodeView } from "~/components/templates/CodeView";
+import { DeleteTemplate, type DeleteAnswer } from "~/components/templates/DeleteTemplate";
+import { VersionDiff, type CompareData } from "~/components/templates/VersionDiff";
 import { requireViewer } from "~/lib/auth.server";
 import { scopeFor } from "~/lib/build-access.server";
 import type { Config } from "~/lib/config/schema";
@@ -12,8 +16,19 @@ import { db } from "~/lib/db.server";
 import { fail } from "~/lib/http.server";
 import { can } from "~/lib/permissions";
 import { getBuild, listBuilds } from "~/lib/repo/builds.server";
-import { getTemplate, getTemplateVersion, latestSources, listVersions, saveTemplateVersion } from "~/lib/repo/templates.server";
+import {
+  deleteTemplate,
+  describeDependents,
+  getTemplate,
+  getTemplateVersion,
+  latestSources,
+  listVersions,
+  saveTemplateVersion,
+  templateDependents,
+  type TemplateDependents,
+} from "~/lib/repo/templates.server";
 import { BUILTIN_TEMPLATES, compileTemplate, type TemplateError } from "~/lib/template";
+import { diffVersions, parseCompare } from "~/lib/template-diff";
 import { BUILTIN_VERSION, compileAndRender, isBuiltinName, metaForBuild, partialsFrom } from "~/lib/template-render";
 import type { Route } from "./+types/templates.$templateId";
 
@@ -26,6 +41,16 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:templates");
   const url = new URL(request.url);
   const ref = params.templateId;
+  // The version picker's plain GET form (from, to) lands on the one address of a comparison.
+  const pickedFrom = url.searchParams.get("from");
+  const pickedTo = url.searchParams.get("to");
+  if (pickedFrom !== null || pickedTo !== null) {
+    const to = new URLSearchParams();
+    const b = url.searchParams.get("build");
+    if (b) to.set("build", b);
+    to.set("compare", `${pickedFrom ?? ""}..${pickedTo ?? ""}`);
+    throw redirect(`${url.pathname}?${to}`);
+  }
   let template: { id: string; name: string; kind: "builtin" | "workshop"; version: number; latest: number; source: string };
   let versions: { version: number; createdAt: string; author: string | null }[] = [];
   if (isBuiltinName(ref)) {
@@ -42,6 +67,24 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     versions = all.map((x) => ({ version: x.version, createdAt: x.created_at.toISOString(), author: x.author }));
     template = { id: t.id, name: t.name, kind: "workshop", version: row.version, latest: all[0]?.version ?? row.version, source: row.source };
   }
+  const compareParam = url.searchParams.get("compare");
+  let compare: Omit<CompareData, "closeHref"> | null = null;
+  if (compareParam !== null) {
+    if (template.kind === "builtin") fail(400, "Built-in templates have a single version; there is nothing to compare.");
+    const pair = parseCompare(compareParam);
+    if (!pair) fail(400, `'compare' must be two version numbers like 1..2, not '${compareParam.slice(0, 40)}'.`);
+    const [a, b] = await Promise.all(pair.map((n) => getTemplateVersion(db(), v.workshop.id, template.id, n)));
+    const absent = pair.filter((_, i) => ![a, b][i]);
+    if (absent.length) fail(404, `This template has no version ${absent[0]}; its versions are 1 to ${template.latest}.`);
+    compare = {
+      from: a!.version,
+      to: b!.version,
+      diff: diffVersions(template.name, a!, b!),
+      patchHref: `/templates/${template.id}/compare.patch?compare=${a!.version}..${b!.version}`,
+    };
+  }
+  const canEdit = template.kind === "workshop" && can(v.role, "edit:template");
+  const dependents: TemplateDependents | null = canEdit ? await templateDependents(db(), v.workshop.id, template.id, template.name) : null;
   const builds = (await listBuilds(db(), scopeFor(v), { sort: "name", dir: "asc", page: 1, perPage: 100 })).rows.map((b) => ({ id: b.id, name: b.name }));
   const buildId = url.searchParams.get("build") ?? builds[0]?.id;
   const b = buildId ? await getBuild(db(), scopeFor(v), buildId) : undefined;
@@ -52,7 +95,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     partials: await latestSources(db(), v.workshop.id),
     builds,
     build: b ? { id: b.id, name: b.name, client_name: b.client_name, updated_at: b.updated_at.toISOString(), config_version: b.config_version, config: b.config as Config } : null,
-    canEdit: template.kind === "workshop" && can(v.role, "edit:template"),
+    canEdit,
+    compare,
+    dependents,
   };
 }
 
@@ -60,17 +105,28 @@ type SaveAnswer = { ok: true; version: number } | { ok: false; message: string; 
 
 export async function action({ request, params }: Route.ActionArgs) {
   const v = await requireViewer(request, "edit:template");
-  if (isBuiltinName(params.templateId)) fail(403, "Built-in templates are read-only; create a template from one to change it.");
+  if (isBuiltinName(params.templateId)) fail(403, "Built-in templates are read-only and cannot be deleted; create a template from one to change it.");
   const t = await getTemplate(db(), v.workshop.id, params.templateId);
   if (!t) fail(404, "No template with this id in your workshop.");
   const declared = Number(request.headers.get("Content-Length"));
   if (Number.isFinite(declared) && declared > MAX_SAVE_BYTES) fail(413, "The template is larger than 1 MB; nothing was saved.");
   const form = await request.formData();
+  const intent = form.get("intent") ?? "save";
+  if (intent === "delete") {
+    if (form.get("confirm") !== t.name) return data<DeleteAnswer>({ intent: "delete", ok: false, message: `Type the template's name, ${t.name}, to confirm; nothing was deleted.` }, { status: 400 });
+    const r = await deleteTemplate(db(), v.workshop.id, t.id);
+    if (r.kind === "missing") fail(404, "No template with this id in your workshop.");
+    if (r.kind === "in-use") return data<DeleteAnswer>({ intent: "delete", ok: false, message: describeDependents(r.name, r.dependents), dependents: r.dependents }, { status: 409 });
+    return redirect(`/templates?deleted=${encodeURIComponent(r.name)}&versions=${r.versions}`);
+  }
+  if (intent !== "save") fail(400, "Unknown action: use intent 'save' or 'delete'.");
   const source = form.get("source");
   const latest = Number(form.get("latest"));
   if (typeof source !== "string") return data<SaveAnswer>({ ok: false, message: "The form has no template source." }, { status: 400 });
   if (!Number.isInteger(latest) || latest < 1) return data<SaveAnswer>({ ok: false, message: "The form must say which version the editor was opened at." }, { status: 400 });
-  const partials = await latestSources(db(), v.workshop.id);
+  // This template's own name means the source being saved: it is about to be the latest, and a
+  // cycle through another template (this → other → this) only shows when it is.
+  const partials = { ...(await latestSources(db(), v.workshop.id)), [t.name]: source };
   const compiled = compileTemplate(source, { partials: partialsFrom(partials) });
   if (!compiled.ok) {
     const errors = compiled.errors.filter((e) => e.severity === "error");
@@ -87,6 +143,14 @@ function toCm(errors: TemplateError[]): CmDiagnostic[] {
   return errors.map((e) => ({ from: e.from, to: e.to, severity: e.severity, message: e.message, source: e.stage }));
 }
 
+/** `path?k=v…` with the parameters that have a value. */
+function withQuery(path: string, params: Record<string, string | null>): string {
+  const q = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) if (v !== null) q.set(k, v);
+  const text = q.toString();
+  return text ? `${path}?${text}` : path;
+}
+
 /** The value, once it has stopped changing for `ms`. */
 function useDebounced<T>(value: T, ms: number): T {
   const [v, setV] = useState(value);
@@ -98,11 +162,13 @@ function useDebounced<T>(value: T, ms: number): T {
 }
 
 export default function TemplateEditorPage({ loaderData }: Route.ComponentProps) {
-  const { template, versions, partials, builds, build, canEdit } = loaderData;
+  const { template, versions, partials: stored, builds, build, canEdit, compare, dependents } = loaderData;
   const [source, setSource] = useState(template.source);
   // A different template or version loaded: start from its source.
   useEffect(() => setSource(template.source), [template.id, template.version, template.source]);
   const settled = useDebounced(source, 120);
+  // As on save: other templates that use this one see the draft, so a cycle through them shows.
+  const partials = useMemo(() => (template.kind === "workshop" ? { ...stored, [template.name]: settled } : stored), [stored, template.kind, template.name, settled]);
   const outcome = useMemo(() => {
     if (!build) return null;
     // Drafts are compiled once and dropped: caching them would only fill the caches.
@@ -132,6 +198,7 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
       <div className="flex flex-wrap items-end gap-4">
         <Form method="get" className="flex items-end gap-2" onChange={(e) => submit(e.currentTarget, { preventScrollReset: true, replace: true })}>
           {viewingOld ? <input type="hidden" name="version" value={template.version} /> : null}
+          {compare ? <input type="hidden" name="compare" value={`${compare.from}..${compare.to}`} /> : null}
           <div>
             <label className="label" htmlFor="preview-build">
               Preview with build
@@ -170,9 +237,23 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
                 v{x.version}
               </Link>
             ))}
+            {!compare ? (
+              <Link to={`?compare=${versions[1].version}..${versions[0].version}${build ? `&build=${build.id}` : ""}`} className="btn ml-2">
+                Compare versions
+              </Link>
+            ) : null}
           </nav>
         ) : null}
       </div>
+
+      {compare ? (
+        <VersionDiff
+          name={template.name}
+          versions={versions.map((x) => x.version).reverse()}
+          build={build?.id ?? null}
+          compare={{ ...compare, closeHref: withQuery(`/templates/${template.id}`, { version: viewingOld ? String(template.version) : null, build: build?.id ?? null }) }}
+        />
+      ) : null}
 
       <div className="grid gap-4 lg:grid-cols-2">
         <section aria-labelledby="source-h" className="min-w-0">
@@ -216,6 +297,8 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           )}
         </section>
       </div>
+
+      {canEdit && dependents ? <DeleteTemplate name={template.name} versions={template.latest} dependents={dependents} /> : null}
     </div>
   );
 }

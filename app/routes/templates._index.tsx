@@ -1,5 +1,5 @@
 // The workshop's templates: the built-ins (read-only) and the workshop's own, and a form to
-// start a new one from a copy of any of them.
+// start a new one from a copy of any of them. After a delete the list says what went.
 import { data, Form, Link, redirect, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import { requireViewer } from "~/lib/auth.server";
@@ -22,7 +22,15 @@ const BUILTIN_NOTES: Record<string, string> = {
 export async function loader({ request }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:templates");
   const mine = await listTemplates(db(), v.workshop.id);
+  // `?deleted=name&versions=n` comes from the delete's redirect; it only reads as done while
+  // the workshop really has no template of that name.
+  const url = new URL(request.url);
+  const gone = url.searchParams.get("deleted");
+  const count = Number(url.searchParams.get("versions"));
+  const deleted =
+    gone && gone.length <= 60 && !mine.some((t) => t.name === gone) ? { name: gone, versions: Number.isInteger(count) && count > 0 ? count : null } : null;
   return {
+    deleted,
     builtins: BUILTIN_NAMES.map((name) => ({ name, note: BUILTIN_NOTES[name] ?? "", lines: BUILTIN_TEMPLATES[name].split("\n").length })),
     templates: mine.map((t) => ({ id: t.id, name: t.name, latest: t.latest, updatedAt: t.updatedAt.toISOString() })),
     canEdit: can(v.role, "edit:template"),
@@ -63,7 +71,7 @@ export async function action({ request }: Route.ActionArgs) {
 }
 
 export default function TemplatesPage({ loaderData }: Route.ComponentProps) {
-  const { builtins, templates, canEdit } = loaderData;
+  const { builtins, templates, canEdit, deleted } = loaderData;
   const answer = useActionData<typeof action>() as ActionAnswer | undefined;
   const busy = useNavigation().state === "submitting";
   return (
@@ -72,6 +80,12 @@ export default function TemplatesPage({ loaderData }: Route.ComponentProps) {
         <h1>Templates</h1>
         <Link to="/templates/reference">Language reference</Link>
       </div>
+      {deleted ? (
+        <p role="status" className="rounded-md border border-signal-ok/50 px-3 py-2 text-sm" data-testid="templates-notice">
+          Deleted the template <span className="font-mono">{deleted.name}</span>
+          {deleted.versions ? ` and its ${deleted.versions} ${deleted.versions === 1 ? "version" : "versions"}` : ""}.
+        </p>
+      ) : null}
       <p className="max-w-3xl text-iron-300">
         A template turns a build's config into the text that goes on the SD card. Builds render with the built-in generic header unless they pin a
         version of one of your workshop's templates on their Render view.

@@ -9,7 +9,7 @@ type Who = "anonymous" | "owner" | "builder" | "reviewer" | "client";
 const LOGINS: Record<Exclude<Who, "anonymous">, string> = { owner: "demo-owner", builder: "demo-builder", reviewer: "demo-reviewer", client: "client-one" };
 type Outcome = "ok" | "bad" | "403" | "404" | "405" | "login" | "401" | "redirect";
 type Case = { route: string; method: "GET" | "POST" | "PUT"; path: (ids: Ids) => string; form?: Record<string, string>; json?: unknown; expect: Record<Who, Outcome> };
-type Ids = { kestrel: string; harrier: string };
+type Ids = { kestrel: string; harrier: string; template: string };
 
 const all = (o: Outcome): Record<Who, Outcome> => ({ anonymous: o, owner: o, builder: o, reviewer: o, client: o });
 const staff = (ok: Outcome, others: Outcome, anon: Outcome = "login"): Record<Who, Outcome> => ({ anonymous: anon, owner: ok, builder: ok, reviewer: others, client: others });
@@ -55,6 +55,12 @@ const CASES: Case[] = [
   { route: "/templates/reference", method: "GET", path: () => "/templates/reference", expect: { ...staff("ok", "403"), reviewer: "ok" } },
   { route: "/templates/:templateId", method: "GET", path: () => "/templates/generic-header", expect: { ...staff("ok", "403"), reviewer: "ok" } },
   { route: "/templates/:templateId", method: "POST", path: () => "/templates/generic-header", form: { source: "" }, expect: { ...all("403"), anonymous: "login" } },
+  { route: "/templates/:templateId", method: "POST", path: () => "/templates/generic-header", form: { intent: "delete", confirm: "generic-header" }, expect: { ...all("403"), anonymous: "login" } },
+  // A delete without the typed name: refused as bad input for those who may delete, and it leaves the template there.
+  { route: "/templates/:templateId", method: "POST", path: (i) => `/templates/${i.template}`, form: { intent: "delete", confirm: "" }, expect: staff("bad", "403") },
+  { route: "/templates/:templateId", method: "GET", path: (i) => `/templates/${i.template}?compare=1..2`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/templates/:templateId/compare.patch", method: "GET", path: (i) => `/templates/${i.template}/compare.patch?compare=1..2`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/templates/:templateId/compare.patch", method: "GET", path: (i) => `/templates/${i.template}/compare.patch?compare=1..9`, expect: { ...staff("404", "403"), reviewer: "404" } },
   { route: "/builds/:buildId/render", method: "GET", path: (i) => `/builds/${i.kestrel}/render`, expect: { ...all("ok"), anonymous: "login" } },
   { route: "/builds/:buildId/render", method: "GET", path: (i) => `/builds/${i.harrier}/render`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
   { route: "/builds/:buildId/render", method: "POST", path: (i) => `/builds/${i.kestrel}/render`, form: { intent: "pin" }, expect: staff("bad", "403") },
@@ -82,7 +88,10 @@ function matches(outcome: Outcome, status: number, location: string | undefined)
 
 for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who[]) {
   test(`permission matrix: ${who}`, async ({ playwright, sql }) => {
-    const ids = { kestrel: await buildIdByName(sql, "Kestrel"), harrier: await buildIdByName(sql, "Harrier") };
+    const ws = (await sql.query("SELECT workshop_id FROM builds WHERE name = 'Kestrel' LIMIT 1")).rows[0].workshop_id;
+    const template = (await sql.query("INSERT INTO templates (workshop_id, name) VALUES ($1, $2) RETURNING id", [ws, `matrix-${who}-${Date.now()}`])).rows[0].id;
+    await sql.query("INSERT INTO template_versions (template_id, version, source) VALUES ($1, 1, 'one'), ($1, 2, 'two')", [template]);
+    const ids = { kestrel: await buildIdByName(sql, "Kestrel"), harrier: await buildIdByName(sql, "Harrier"), template };
     const api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Origin: BASE_URL } });
     if (who !== "anonymous") await signInRequest(api, LOGINS[who]);
     const failures: string[] = [];
@@ -96,6 +105,8 @@ for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who
       if (!matches(want, res.status(), res.headers()["location"])) failures.push(`${c.method} ${url}: wanted ${want}, got ${res.status()}`);
     }
     expect(failures).toEqual([]);
+    expect((await sql.query("SELECT count(*)::int AS n FROM template_versions WHERE template_id = $1", [template])).rows[0].n).toBe(2);
+    await sql.query("DELETE FROM templates WHERE id = $1", [template]);
     await api.dispose();
   });
 }

@@ -6,10 +6,8 @@ import { createHash, randomBytes } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import http from "node:http";
 import type pg from "pg";
-import type { Page } from "@playwright/test";
 import { test, expect, buildIdByName, BASE_URL } from "./fixtures";
-
-const uniq = () => randomBytes(3).toString("hex");
+import { insertTemplate, keepingBuild, typeAtStart, uniq } from "./template-helpers";
 
 async function tokenFor(sql: pg.Pool, login: string): Promise<string> {
   const token = `hbt_${randomBytes(32).toString("base64url")}`;
@@ -48,36 +46,6 @@ function postUntilAnswered(path: string, token: string, body: string): Promise<{
     });
     req.end(bytes);
   });
-}
-
-/** A workshop template made directly in the database (for tests about something else). */
-async function insertTemplate(sql: pg.Pool, name: string, sources: string[]): Promise<string> {
-  const ws = await sql.query("SELECT workshop_id FROM builds WHERE name = 'Kestrel' LIMIT 1");
-  const t = await sql.query("INSERT INTO templates (workshop_id, name) VALUES ($1, $2) RETURNING id", [ws.rows[0].workshop_id, name]);
-  for (const [i, s] of sources.entries()) await sql.query("INSERT INTO template_versions (template_id, version, source) VALUES ($1, $2, $3)", [t.rows[0].id, i + 1, s]);
-  return t.rows[0].id;
-}
-
-/** Puts a build's pin and config back as they were after `body`. */
-async function keepingBuild(sql: pg.Pool, id: string, body: () => Promise<void>) {
-  const before = (await sql.query("SELECT config, pinned_template_id, pinned_template_version FROM builds WHERE id = $1", [id])).rows[0];
-  try {
-    await body();
-  } finally {
-    await sql.query("UPDATE builds SET config = $2, config_version = config_version + 1, pinned_template_id = $3, pinned_template_version = $4 WHERE id = $1", [
-      id,
-      JSON.stringify(before.config),
-      before.pinned_template_id,
-      before.pinned_template_version,
-    ]);
-  }
-}
-
-/** Puts the cursor at the very start of the template editor and inserts text there. */
-async function typeAtStart(page: Page, text: string) {
-  await page.locator("[data-testid=template-editor] .cm-content").click();
-  await page.keyboard.press("Control+Home");
-  await page.keyboard.insertText(text);
 }
 
 test("a builder makes a template from the generic header, edits it live, saves versions, pins one on Kestrel and moves it on", async ({ page, signIn, sql }) => {
