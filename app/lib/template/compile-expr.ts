@@ -127,18 +127,29 @@ export function compileExpr(env: Env, e: Expr): Compiled {
 function compileGet(env: Env, e: Extract<Expr, { k: "get" }>): Compiled {
   // Collapse a chain a.b.c into one closure over its keys. Chains of one or two keys (nearly
   // all of them) are read without arrays.
+  // A chain on a variable (nearly all of them) reads the variable's slot itself: one closure
+  // for `l.range.start`, not one per step.
   const inner = e.obj;
   if (inner.k !== "get" || inner.obj.k === "get") {
     if (inner.k !== "get") {
+      const v = inner.k === "var" ? env.scope.lookup(inner.name) : undefined;
+      if (v && !PROTO_KEYS.has(e.key)) return { ev: slotRead1(v.slot, e.key), ty: fieldType(env, v.ty, e.key, e.keyFrom, e.to), cSafe: false };
       const root = compileExpr(env, inner);
       const ty = fieldType(env, root.ty, e.key, e.keyFrom, e.to);
       return { ev: PROTO_KEYS.has(e.key) ? readChain(root.ev, [e.key]) : read1(root.ev, e.key), ty, cSafe: false };
     }
   } else {
-    const root = compileExpr(env, inner.obj);
+    const base = inner.obj;
+    const v = base.k === "var" ? env.scope.lookup(base.name) : undefined;
+    const plain = !PROTO_KEYS.has(inner.key) && !PROTO_KEYS.has(e.key);
+    if (v && plain) {
+      const mid = fieldType(env, v.ty, inner.key, inner.keyFrom, inner.to);
+      return { ev: slotRead2(v.slot, inner.key, e.key), ty: fieldType(env, mid, e.key, e.keyFrom, e.to), cSafe: false };
+    }
+    const root = compileExpr(env, base);
     const mid = fieldType(env, root.ty, inner.key, inner.keyFrom, inner.to);
     const ty = fieldType(env, mid, e.key, e.keyFrom, e.to);
-    const ev = PROTO_KEYS.has(inner.key) || PROTO_KEYS.has(e.key) ? readChain(root.ev, [inner.key, e.key]) : read2(root.ev, inner.key, e.key);
+    const ev = plain ? read2(root.ev, inner.key, e.key) : readChain(root.ev, [inner.key, e.key]);
     return { ev, ty, cSafe: false };
   }
   let base: Expr = e;
@@ -167,6 +178,21 @@ function read1(r: Ev, k0: string): Ev {
   return (c) => {
     const o = r(c);
     return o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
+  };
+}
+
+function slotRead1(slot: number, k0: string): Ev {
+  return (c) => {
+    const o = c.f[slot];
+    return o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
+  };
+}
+
+function slotRead2(slot: number, k0: string, k1: string): Ev {
+  return (c) => {
+    const o = c.f[slot];
+    const m = o !== null && typeof o === "object" && !Array.isArray(o) ? (o as Record<string, unknown>)[k0] : undefined;
+    return m !== null && typeof m === "object" && !Array.isArray(m) ? (m as Record<string, unknown>)[k1] : undefined;
   };
 }
 
