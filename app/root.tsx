@@ -1,8 +1,14 @@
 import { Links, Meta, Outlet, Scripts, ScrollRestoration, isRouteErrorResponse, Link } from "react-router";
 import type { Route } from "./+types/root";
+import { useEffect } from "react";
 import "./app.css";
 
 export function Layout({ children }: { children: React.ReactNode }) {
+  // Marks the document once React has taken over, so browser tests act on a live page rather
+  // than on server HTML whose buttons do nothing yet.
+  useEffect(() => {
+    document.documentElement.dataset.hydrated = "true";
+  }, []);
   return (
     <html lang="en">
       <head>

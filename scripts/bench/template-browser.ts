@@ -36,7 +36,7 @@ globalThis.hbBench = (source, roundMs, rounds) => {
   for (let i = 0; i < 5; i++) { const t = performance.now(); fns.edited(); firsts.push((performance.now() - t) * 1000); }
   for (let r = 0; r < rounds; r++) {
     for (const [name, fn] of Object.entries(fns)) {
-      for (let i = 0; i < 10; i++) fn();
+      for (let w = performance.now(), i = 0; i < 10 || performance.now() - w < 100; i++) fn();
       let n = 0;
       const start = performance.now();
       let now = start;

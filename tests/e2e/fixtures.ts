@@ -29,6 +29,18 @@ export async function signInRequest(request: APIRequestContext, login: string, n
 type Fixtures = { signIn: (login: string) => Promise<void>; sql: pg.Pool; pageErrors: string[] };
 
 export const test = base.extend<Fixtures>({
+  // After a full page load, wait until React has hydrated (the root layout sets
+  // html[data-hydrated]); a click that lands before then would hit a button with no handler yet.
+  page: async ({ page }, use) => {
+    const goto = page.goto.bind(page);
+    page.goto = async (url, options) => {
+      const response = await goto(url, options);
+      if (response && (response.headers()["content-type"] ?? "").startsWith("text/html"))
+        await page.locator("html[data-hydrated]").waitFor({ state: "attached", timeout: 15_000 });
+      return response;
+    };
+    await use(page);
+  },
   pageErrors: async ({ page }, use) => {
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(`pageerror: ${e.message}`));
