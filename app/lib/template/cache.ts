@@ -31,8 +31,10 @@ export function parseTemplate(source: string, limits: Limits = DEFAULT_LIMITS): 
     applyWhitespace(lexed);
     ast = parse(lexed, failures, limits.maxDepth);
   } catch (e) {
-    if (!(e instanceof TemplateFailure)) throw e;
-    failures.push(e);
+    // The limits keep recursion shallow; a stack overflow anyway is still the template's fault.
+    if (e instanceof RangeError) failures.push(new TemplateFailure("parse", "the template is nested too deeply to read", 0, Math.min(2, source.length)));
+    else if (!(e instanceof TemplateFailure)) throw e;
+    else failures.push(e);
   }
   const errors = failures.map((f) => makeError(source, f.stage, f.message, f.from, f.to));
   return { ast: errors.length ? null : ast, errors };

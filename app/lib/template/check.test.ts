@@ -95,6 +95,33 @@ describe("schema check at compile time", () => {
     }
   });
 
+  it("bounds the work of compiling when a big piece is used many times, pointing at the outermost use", () => {
+    const body = "@( meta.buildName |> upper )@".repeat(2000);
+    const src = `@[ piece big ]@${body}@[ /piece ]@@[ piece twice ]@@[ use big ]@@[ use big ]@@[ /piece ]@\n` + "@[ use twice ]@".repeat(40);
+    const started = performance.now();
+    const errs = errorsOf(src);
+    expect(performance.now() - started).toBeLessThan(5000);
+    expect(errs).toHaveLength(1);
+    expect(errs[0].message).toBe("the template grows past the limit of 100000 nodes when its pieces and used templates are expanded; use fewer or smaller pieces");
+    // The use in the template's own text, not the one inside the piece that was being expanded.
+    expect(src.slice(errs[0].from, errs[0].to)).toBe("@[ use twice ]@");
+    expect(errs[0].line).toBe(2);
+    // A smaller budget stops the same template sooner; the built-ins are far below the default.
+    expect(errorsOf("@( 1 + 2 )@@( 3 )@".repeat(10)).length).toBe(0);
+    const small = compileTemplate("@( 1 + 2 )@".repeat(10), { limits: { maxCompileNodes: 12 } });
+    expect(small.ok).toBe(false);
+  });
+
+  it("flags model text that reaches C through 'json' or a 'default' fallback", () => {
+    const src = "@[ target c ]@ @( meta.revision |> default(meta.buildName) )@ @( config.rig |> json )@ @( meta.revision |> default(0) )@";
+    const c = compileTemplate(src, { cache: false });
+    expect(c.ok).toBe(true);
+    if (!c.ok) return;
+    // The first two tags are flagged; a number fallback is not text.
+    expect(c.warnings.map((w) => w.column)).toEqual([src.indexOf("@( meta") + 1, src.indexOf("@( config") + 1]);
+    expect(c.warnings.every((w) => w.message.startsWith("model text printed into C without a C filter"))).toBe(true);
+  });
+
   it("expands pieces a bounded number of times", () => {
     let src = "@[ piece p0 ]@x@[ /piece ]@";
     for (let i = 1; i <= 14; i++) src += `@[ piece p${i} ]@@[ use p${i - 1} ]@@[ use p${i - 1} ]@@[ /piece ]@`;

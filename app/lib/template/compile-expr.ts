@@ -5,8 +5,8 @@ import type { Expr } from "./ast";
 import { suggest } from "./errors";
 import { FilterError, show, type FilterDef, type InputKind } from "./filters";
 import { FILTERS } from "./filtertable";
-import { renderFail, report, type Env, type Ev } from "./scope";
-import { ANY, BOOL, describe, LOOP_FIELDS, NUM, STR, type Ty } from "./types";
+import { renderFail, report, step, work, type Env, type Ev } from "./scope";
+import { ANY, BOOL, describe, FREE_STR, LOOP_FIELDS, NUM, STR, type Ty } from "./types";
 
 const hasOwn = Object.prototype.hasOwnProperty;
 /**
@@ -59,6 +59,7 @@ export interface Compiled {
 }
 
 export function compileExpr(env: Env, e: Expr): Compiled {
+  work(env);
   switch (e.k) {
     case "lit": {
       const v = e.value;
@@ -353,6 +354,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   if (argEvs.length === 0) {
     const none: unknown[] = [];
     ev = anon((c) => {
+      step(c, from, to);
       try {
         return fn(inp(c), none, c);
       } catch (err) {
@@ -362,6 +364,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
   } else if (argEvs.length === 1) {
     const a0 = argEvs[0];
     ev = anon((c) => {
+      step(c, from, to);
       const vs = [a0(c)];
       try {
         return fn(inp(c), vs, c);
@@ -371,6 +374,7 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
     });
   } else {
     ev = anon((c) => {
+      step(c, from, to);
       const vs = argEvs.map((a) => a(c));
       try {
         return fn(inp(c), vs, c);
@@ -379,6 +383,12 @@ function compileFilter(env: Env, e: Extract<Expr, { k: "filter" }>): Compiled {
       }
     });
   }
-  const ty = def.out(input.ty);
+  let ty = def.out(input.ty);
+  // 'default' can answer with its argument: free text there makes the result free text too.
+  if (name === "default" && args.length === 1) {
+    const alt = args[0].ty;
+    if (alt.k === "str" && alt.free && !args[0].cSafe) ty = FREE_STR;
+    else if (alt.k !== "any" && alt.k !== ty.k && ty.k !== "any") ty = ANY;
+  }
   return { ev, ty, cSafe: !!def.cSafe || (input.cSafe && ty.k !== "str") };
 }

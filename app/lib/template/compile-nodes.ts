@@ -6,7 +6,7 @@ import { suggest } from "./errors";
 import { compileExpr, spanFrom, spanTo, truthy } from "./compile-expr";
 import { show, toText } from "./filters";
 import { parseCached } from "./cache";
-import { bind, renderFail, report, Scope, type Ctx, type Env, type Run, type Unit } from "./scope";
+import { bind, CompileBudget, renderFail, report, Scope, step, work, type Ctx, type Env, type Run, type Unit } from "./scope";
 import type { Ty } from "./types";
 
 /**
@@ -23,6 +23,7 @@ function withScope(env: Env, scope: Scope, unit: Unit = env.unit, stack: string[
     diags: env.diags,
     stack,
     expansions: env.expansions,
+    work: env.work,
     resolve: env.resolve,
   };
 }
@@ -49,14 +50,11 @@ function appendChecked(c: Ctx, s: string, from: number, to: number) {
   if (c.out.length > c.maxOutput) throw renderFail(`output is larger than the limit of ${c.maxOutput} characters`, from, to);
 }
 
-export function step(c: Ctx, from: number, to: number) {
-  if (++c.steps > c.maxSteps) throw renderFail(`evaluation took more than the limit of ${c.maxSteps} steps (loop passes, piece uses)`, from, to);
-  if ((c.steps & 1023) === 0 && Date.now() > c.deadline) throw renderFail("rendering took longer than the time limit", from, to);
-}
 
 // Each case that makes a closure does it in a function of its own, so a call allocates only
 // the captured variables of its own kind of node.
 function compileNode(env: Env, n: Node): Run | null {
+  work(env);
   switch (n.k) {
     case "text":
       return compileText(n.value, spanFrom(env, n.from), spanTo(env, n.to));
@@ -226,7 +224,16 @@ function compileUse(env: Env, n: Extract<Node, { k: "use" }>, from: number, to: 
     if (!x) report(env, `piece '${n.name}' needs the parameter '${p.name}'`, n.from, n.to);
     argRuns.push({ slot: bind(inner, scope, p.name, x?.ty ?? { k: "any" }), ev: x?.ev ?? (() => undefined) });
   }
-  const body = compileBody(inner, bodyNodes);
+  let body: Run;
+  try {
+    body = compileBody(inner, bodyNodes);
+  } catch (e) {
+    if (e instanceof CompileBudget && !env.unit.site) {
+      e.from = n.from;
+      e.to = n.to;
+    }
+    throw e;
+  }
   return (c) => {
     step(c, from, to);
     // Parameter slots are fresh and pieces never recurse, so arguments can land in place.

@@ -5,7 +5,7 @@ import { alsoClear, parseCached, parseTemplate } from "./cache";
 import { compileBody } from "./compile-nodes";
 import { makeError, TemplateFailure, type TemplateError } from "./errors";
 import { DEFAULT_LIMITS, type Limits } from "./limits";
-import { Scope, type Ctx, type Env, type Run } from "./scope";
+import { CompileBudget, Scope, type Ctx, type Env, type Run } from "./scope";
 import { CONFIG_TYPE, META_TYPE } from "./types";
 
 export interface RenderMeta {
@@ -86,9 +86,26 @@ function compileUncached(source: string, opts: CompileOptions): CompileResult {
     diags: [],
     stack: [],
     expansions: { n: 0 },
+    work: { n: 0 },
     resolve: typeof opts.partials === "function" ? opts.partials : undefined,
   };
-  const run = compileBody(env, parsed.ast.body);
+  let run: Run;
+  try {
+    run = compileBody(env, parsed.ast.body);
+  } catch (e) {
+    // Both stop the whole compile: what was reported so far is kept, the budget error added.
+    const whole = Math.min(2, source.length);
+    if (e instanceof CompileBudget)
+      env.diags.push({
+        severity: "error",
+        message: `the template grows past the limit of ${limits.maxCompileNodes} nodes when its pieces and used templates are expanded; use fewer or smaller pieces`,
+        from: e.from >= 0 ? e.from : 0,
+        to: e.from >= 0 ? e.to : whole,
+      });
+    else if (e instanceof RangeError) env.diags.push({ severity: "error", message: "the template is nested too deeply to check", from: 0, to: whole });
+    else throw e;
+    run = () => {};
+  }
   const all = env.diags.map((d) => makeError(source, "check", d.message, d.from, d.to, d.severity));
   const errors = all.filter((d) => d.severity === "error");
   const warnings = all.filter((d) => d.severity === "warning");

@@ -259,7 +259,8 @@ const GENERAL: [string, FilterDef][] = [
   ["seconds", { min: 0, max: 0, input: "num", out: () => STR, fn: (v) => `${trimNum(needNum(v, "the input of 'seconds'") / 1000)} s` }],
   ["px", { min: 0, max: 0, input: "num", out: () => STR, fn: (v) => { const n = needNum(v, "the input of 'px'"); return `${trimNum(n)} px`; } }],
   ["percent", { min: 0, max: 0, input: "num", out: () => STR, fn: (v) => `${trimNum(needNum(v, "the input of 'percent'") * 100)} %` }],
-  ["json", { min: 0, max: 1, input: "any", out: () => STR, cSafe: true, fn: (v, [indent = 0], ctx) => JSON.stringify(v, null, Math.min(10, needWidth(indent, "the indent of 'json'", ctx))) ?? "null" }],
+  // JSON of model data carries the model's text as it is (a "*/" or "??/" included): free text.
+  ["json", { min: 0, max: 1, input: "any", out: () => FREE_STR, fn: (v, [indent = 0], ctx) => JSON.stringify(v, null, Math.min(10, needWidth(indent, "the indent of 'json'", ctx))) ?? "null" }],
 ];
 
 function trimNum(n: number): string {

@@ -10,6 +10,9 @@ export interface Limits {
   maxPartialDepth: number;
   /** Partial expansions at compile time, summed over the whole template. */
   maxExpansions: number;
+  /** Nodes and expressions checked and compiled, with pieces and other templates expanded where
+   * they are used: bounds the work of compiling, which a piece used many times multiplies. */
+  maxCompileNodes: number;
   /** Loop iterations, partial uses and filter calls at render time. */
   maxSteps: number;
   /** Output size, in UTF-16 code units. */
@@ -25,6 +28,7 @@ export const DEFAULT_LIMITS: Readonly<Limits> = Object.freeze({
   maxDepth: 64,
   maxPartialDepth: 16,
   maxExpansions: 2000,
+  maxCompileNodes: 100_000,
   maxSteps: 1_000_000,
   maxOutput: 4 * 1024 * 1024,
   maxMillis: 2000,

@@ -13,6 +13,9 @@ import {
 /** Expression parser over the tokens of one tag (`i` up to `end`). */
 export class Cursor {
   private nest = 0;
+  /** Operators and filters read in this tag: a chain `a + b + …` or `x |> f |> …` builds a tree
+   * as deep as it is long, and every later stage walks it recursively. */
+  private ops = 0;
   constructor(
     readonly toks: Tokens,
     public i: number,
@@ -28,6 +31,7 @@ export class Cursor {
     this.piece = piece;
     this.depth = depth;
     this.nest = 0;
+    this.ops = 0;
     return this;
   }
   /** The kind of the current token, or -1 at the end of the tag. */
@@ -75,10 +79,21 @@ export class Cursor {
     if (this.i >= this.end || !this.toks.is(this.i, word)) throw this.fail(`expected '${word}'`);
     return e;
   }
-  expr(): Expr {
+  /** Counts one more level of nesting (a parenthesis, 'not', unary minus) against the limit. */
+  private enter(): void {
     if (++this.nest + this.depth > this.maxDepth) throw this.fail(`expression nested deeper than the limit of ${this.maxDepth}`);
+  }
+  /** Counts one more operator or filter in this tag; a chain longer than four times the nesting
+   * limit is refused rather than walked. */
+  private op1(at: number): void {
+    if (++this.ops > 4 * this.maxDepth)
+      throw this.fail(`more than ${4 * this.maxDepth} operators and filters in one tag (the limit); split the expression with 'let'`, at);
+  }
+  expr(): Expr {
+    this.enter();
     let e = this.or();
     while (this.peek(PIPE)) {
+      this.op1(this.i);
       this.i++;
       const at = this.i;
       if (at >= this.end || this.toks.kind[at] !== IDENT) throw this.fail("expected a filter name after '|>'");
@@ -108,6 +123,7 @@ export class Cursor {
   private or(): Expr {
     let left = this.and();
     while (this.peek(KW_OR)) {
+      this.op1(this.i);
       this.i++;
       const right = this.and();
       left = { k: "binary", op: "or", left, right, from: left.from, to: right.to };
@@ -117,6 +133,7 @@ export class Cursor {
   private and(): Expr {
     let left = this.not();
     while (this.peek(KW_AND)) {
+      this.op1(this.i);
       this.i++;
       const right = this.not();
       left = { k: "binary", op: "and", left, right, from: left.from, to: right.to };
@@ -125,8 +142,10 @@ export class Cursor {
   }
   private not(): Expr {
     if (this.peek(KW_NOT)) {
+      this.enter();
       const from = this.toks.from[this.i++];
       const arg = this.not();
+      this.nest--;
       return { k: "unary", op: "not", arg, from, to: arg.to };
     }
     return this.cmp();
@@ -135,6 +154,7 @@ export class Cursor {
     const left = this.add();
     const k = this.kind();
     if (k === EQ || k === NE || k === LT || k === LE || k === GT || k === GE) {
+      this.op1(this.i);
       this.i++;
       const right = this.add();
       return { k: "binary", op: OP_TEXT[k] as BinaryOp, left, right, from: left.from, to: right.to };
@@ -144,6 +164,7 @@ export class Cursor {
   private add(): Expr {
     let left = this.mul();
     for (let k = this.kind(); k === PLUS || k === MINUS; k = this.kind()) {
+      this.op1(this.i);
       this.i++;
       const right = this.mul();
       left = { k: "binary", op: OP_TEXT[k] as BinaryOp, left, right, from: left.from, to: right.to };
@@ -153,6 +174,7 @@ export class Cursor {
   private mul(): Expr {
     let left = this.unary();
     for (let k = this.kind(); k === STAR || k === SLASH || k === PERCENT; k = this.kind()) {
+      this.op1(this.i);
       this.i++;
       const right = this.unary();
       left = { k: "binary", op: OP_TEXT[k] as BinaryOp, left, right, from: left.from, to: right.to };
@@ -161,8 +183,10 @@ export class Cursor {
   }
   private unary(): Expr {
     if (this.peek(MINUS)) {
+      this.enter();
       const from = this.toks.from[this.i++];
       const arg = this.unary();
+      this.nest--;
       return { k: "unary", op: "-", arg, from, to: arg.to };
     }
     return this.postfix();
@@ -172,12 +196,14 @@ export class Cursor {
     for (;;) {
       const k = this.kind();
       if (k === DOT) {
+        this.op1(this.i);
         this.i++;
         const at = this.i;
         if (at >= this.end || this.toks.kind[at] !== IDENT) throw this.fail("expected a field name after '.'");
         this.i++;
         e = { k: "get", obj: e, key: this.toks.text(at), keyFrom: this.toks.from[at], from: e.from, to: this.toks.to[at] };
       } else if (k === LBRACK) {
+        this.op1(this.i);
         this.i++;
         const key = this.expr();
         const at = this.i;

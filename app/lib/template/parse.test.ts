@@ -37,6 +37,28 @@ describe("parser", () => {
     expect(r.errors[0].message).toMatch(/'orwhen' after 'otherwise'/);
   });
 
+  it("refuses long chains of prefixes, operators and filters with a positioned error, never a stack overflow", () => {
+    // Each of these builds a tree as deep as the chain is long; before the limits they escaped
+    // compile as a RangeError (a 500 from the API, a page error in the editor).
+    const cases: [string, RegExp][] = [
+      ["@( " + "not ".repeat(50_000) + "true )@", /expression nested deeper than the limit of 64/],
+      ["@( " + "- ".repeat(50_000) + "1 )@", /expression nested deeper than the limit of 64/],
+      ["@( 1" + " + 1".repeat(50_000) + " )@", /more than 256 operators and filters in one tag \(the limit\); split the expression with 'let'/],
+      ["@( 'a'" + " |> upper".repeat(20_000) + " )@", /more than 256 operators and filters in one tag/],
+      ["@( config" + ".rig".repeat(20_000) + " )@", /more than 256 operators and filters in one tag/],
+    ];
+    for (const [src, message] of cases) {
+      const r = run(src, { cache: false });
+      expect(r.errors).toHaveLength(1);
+      expect(r.errors[0]).toMatchObject({ stage: "parse", line: 1 });
+      expect(r.errors[0].message).toMatch(message);
+      expect(r.errors[0].column).toBeGreaterThan(3);
+    }
+    // Up to the limits they still work.
+    expect(out("@( not " + "not ".repeat(40) + "true )@")).toBe("false");
+    expect(out("@( 0" + " + 1".repeat(250) + " )@")).toBe("250");
+  });
+
   it("limits nesting depth with a clear error", () => {
     const deep = "@[ when true ]@".repeat(100) + "x" + "@[ /when ]@".repeat(100);
     const r = run(deep);

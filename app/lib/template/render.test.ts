@@ -88,6 +88,19 @@ describe("render errors", () => {
     expect(r.errors[0].message).toBe("output is larger than the limit of 100000 characters");
   });
 
+  it("charges filter calls, so a render with few loop passes but heavy filters still stops on time", () => {
+    // Five loop passes, each with 2,000 JSON copies of the whole config: few steps of the old
+    // kind (loop passes), so the clock was never looked at and the render ran to the end.
+    const src = "@[ over config.presets as p ]@" + "@[ let n = config |> json |> count ]@".repeat(2000) + "@[ /over ]@";
+    const started = performance.now();
+    const r = run(src, { limits: { maxMillis: 20 } });
+    expect(r.errors[0]).toMatchObject({ stage: "render", message: "rendering took longer than the time limit" });
+    expect(performance.now() - started).toBeLessThan(2000);
+    expect(run("@( 'x' |> upper |> lower )@", { limits: { maxSteps: 1 } }).errors[0].message).toBe(
+      "evaluation took more than the limit of 1 steps (loop passes, piece uses, filter calls)",
+    );
+  });
+
   it("stops a slow render by the time budget", () => {
     const nest = "@[ over config.presets[0].looks.blade.layers as a ]@".repeat(9) + "@[ /over ]@".repeat(9);
     const r = run(nest, { limits: { maxMillis: 5, maxSteps: 1e12 } });

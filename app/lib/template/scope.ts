@@ -68,6 +68,8 @@ export interface Env {
   /** Piece and template names being expanded, outermost first, for cycle and depth checks. */
   stack: string[];
   expansions: { n: number };
+  /** Nodes and expressions compiled so far, charged against `limits.maxCompileNodes`. */
+  work: { n: number };
   resolve?: (name: string) => string | undefined;
 }
 
@@ -86,6 +88,30 @@ function lineCol(source: string, offset: number): string {
 
 export function renderFail(message: string, from: number, to: number): TemplateFailure {
   return new TemplateFailure("render", message, from, to);
+}
+
+/**
+ * Charges one step of render work (a loop pass, a piece use, a filter call) and looks at the
+ * clock every 64 steps, so a render stops soon after its time limit whatever its steps cost.
+ */
+export function step(c: Ctx, from: number, to: number) {
+  if (++c.steps > c.maxSteps) throw renderFail(`evaluation took more than the limit of ${c.maxSteps} steps (loop passes, piece uses, filter calls)`, from, to);
+  if ((c.steps & 63) === 0 && Date.now() > c.deadline) throw renderFail("rendering took longer than the time limit", from, to);
+}
+
+/**
+ * Thrown, not reported, when compiling passes `maxCompileNodes`: the rest is not compiled. On
+ * its way out each `use` in the root template puts its own span on it, so the error ends up
+ * pointing at the outermost use that was being expanded.
+ */
+export class CompileBudget extends Error {
+  from = -1;
+  to = -1;
+}
+
+/** Charges one node or expression of compile work. */
+export function work(env: Env) {
+  if (++env.work.n > env.limits.maxCompileNodes) throw new CompileBudget();
 }
 
 export function bind(env: Env, scope: Scope, name: string, ty: Ty): number {
