@@ -23,6 +23,11 @@ describe("C identifiers (C11 §6.4.1 keywords, §6.4.2 identifiers)", () => {
 
   it("keeps identifiers unique within a scope and stable for the same input", () => {
     expect(out("@( 'a-b' |> cident )@ @( 'a_b' |> cident )@ @( 'a-b' |> cident )@ @( 'a b' |> cident('other') )@")).toBe("a_b a_b_2 a_b a_b");
+    // Long names stay within the 63 significant characters C11 §5.2.4.1 guarantees, suffix included.
+    const long = "x".repeat(80);
+    const [first, second] = out(`@( '${long}' |> cident )@ @( '${long}-' |> cident )@`).split(" ");
+    expect(first).toHaveLength(63);
+    expect(second).toBe(`${"x".repeat(61)}_2`);
   });
 
   it.skipIf(!hasCC)("compiles identifiers made from awkward input (outside judge: cc)", () => {

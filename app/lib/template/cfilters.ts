@@ -84,6 +84,10 @@ const cStr = (t: Ty): Ty => {
   return m === true ? C_STR_TRUE : m === undefined ? C_STR_UNSET : C_STR_FALSE;
 };
 
+/** Names given out per scope table, so each new name is checked in constant time. */
+const TAKEN = new WeakMap<Map<string, string>, Set<string>>();
+const MAX_IDENT = 63;
+
 export const C_FILTERS: [string, FilterDef][] = [
   [
     "cident",
@@ -101,10 +105,16 @@ export const C_FILTERS: [string, FilterDef][] = [
         const known = table.get(s);
         if (known !== undefined) return known;
         const base = toCIdentifier(s);
-        const taken = new Set(table.values());
+        let taken = TAKEN.get(table);
+        if (!taken) TAKEN.set(table, (taken = new Set(table.values())));
         let name = base;
-        for (let i = 2; taken.has(name); i++) name = `${base}_${i}`;
+        // C11 §5.2.4.1 guarantees 63 significant initial characters: the suffix goes inside them.
+        for (let i = 2; taken.has(name); i++) {
+          const suffix = `_${i}`;
+          name = `${base.slice(0, MAX_IDENT - suffix.length)}${suffix}`;
+        }
         table.set(s, name);
+        taken.add(name);
         return name;
       },
     },
