@@ -60,6 +60,7 @@ export async function seed(db: Kysely<Database>) {
         hilt_notes: b.notes,
         status: b.status,
         config: JSON.stringify(b.config),
+        config_saved_at: new Date(),
       })
       .execute();
   }

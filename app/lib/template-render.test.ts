@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { demoConfig } from "./config/demo";
 import { compileAndRender, downloadName, metaForBuild, partialsFrom } from "./template-render";
 
-const build = { name: "Kestrel", client_name: "Client One", updated_at: new Date("2026-03-14T09:30:00Z"), config_version: 7 };
+const build = { name: "Kestrel", client_name: "Client One", config_saved_at: new Date("2026-03-14T09:30:00Z"), config_version: 7 };
 
 describe("rendering with the workshop's templates", () => {
   it("resolves workshop templates first, then the built-ins", () => {

@@ -27,12 +27,16 @@ export function compileAndRender(source: string, config: Config, meta: RenderMet
   return { ok: true, output: r.output, warnings: compiled.warnings, target: compiled.template.target };
 }
 
-/** Render metadata for a build: savedAt is the build's last save, never the clock. */
+/**
+ * Render metadata for a build: savedAt is when its config was last saved (`config_saved_at`),
+ * never the clock and never `updated_at` (which a rename or a status change also moves), so the
+ * same config and template version always render the same bytes.
+ */
 export function metaForBuild(
-  b: { name: string; client_name?: string | null; updated_at: Date | string; config_version?: number },
+  b: { name: string; client_name?: string | null; config_saved_at: Date | string; config_version?: number },
   template: { name: string; version: number },
 ): RenderMeta {
-  const at = b.updated_at instanceof Date ? b.updated_at : new Date(b.updated_at);
+  const at = b.config_saved_at instanceof Date ? b.config_saved_at : new Date(b.config_saved_at);
   return {
     buildName: b.name,
     ...(b.client_name ? { clientName: b.client_name } : {}),

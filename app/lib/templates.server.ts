@@ -30,7 +30,7 @@ export const API_LIMITS: Partial<Limits> = { maxMillis: 500 };
 
 export async function renderBuildWith(
   v: Viewer,
-  b: { name: string; client_name: string; updated_at: Date; config_version: number; config: unknown },
+  b: { name: string; client_name: string; config_saved_at: Date; config_version: number; config: unknown },
   t: ResolvedTemplate,
   limits?: Partial<Limits>,
 ): Promise<RenderOutcome> {

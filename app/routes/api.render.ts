@@ -60,7 +60,7 @@ export function action({ request }: Route.ActionArgs) {
       t = await resolveTemplate(v, ref.data.builtin);
     } else t = await resolveTemplate(v, ref.data.id, ref.data.version);
 
-    let build: { name: string; client_name: string; updated_at: Date; config_version?: number };
+    let build: { name: string; client_name: string; config_saved_at: Date; config_version?: number };
     let config: unknown;
     if (body.data.buildId !== undefined) {
       const b = await loadBuildFor(v, body.data.buildId);
@@ -74,7 +74,7 @@ export function action({ request }: Route.ActionArgs) {
           { status: 422 },
         );
       config = checked.config;
-      build = { name: "Posted config", client_name: "", updated_at: new Date(0) };
+      build = { name: "Posted config", client_name: "", config_saved_at: new Date(0) };
     }
     const partials = await latestSources(db(), v.workshop.id);
     const r = compileAndRender(t.source, config as never, metaForBuild(build, t), { partials, limits: API_LIMITS });

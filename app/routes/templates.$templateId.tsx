@@ -94,7 +94,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     versions,
     partials: await latestSources(db(), v.workshop.id),
     builds,
-    build: b ? { id: b.id, name: b.name, client_name: b.client_name, updated_at: b.updated_at.toISOString(), config_version: b.config_version, config: b.config as Config } : null,
+    build: b ? { id: b.id, name: b.name, client_name: b.client_name, config_saved_at: b.config_saved_at.toISOString(), config_version: b.config_version, config: b.config as Config } : null,
     canEdit,
     compare,
     dependents,

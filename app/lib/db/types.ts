@@ -55,6 +55,8 @@ export interface BuildsTable {
   archived_at: Date | null;
   created_at: Timestamp;
   updated_at: Timestamp;
+  /** When the config was last saved (config_version changed); renders print this, not updated_at. */
+  config_saved_at: Timestamp;
   /** The workshop template version the build renders with; null = the built-in generic header. */
   pinned_template_id: Generated<string | null>;
   pinned_template_version: Generated<number | null>;

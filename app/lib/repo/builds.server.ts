@@ -77,6 +77,7 @@ export async function createBuild(db: Db, workshopId: string, meta: BuildMeta, c
       hilt_notes: meta.hiltNotes,
       status: meta.status,
       config: JSON.stringify(config),
+      config_saved_at: new Date(),
     })
     .returning(["id"])
     .executeTakeFirstOrThrow();
@@ -103,9 +104,12 @@ export async function updateBuildMeta(db: Db, workshopId: string, id: string, me
  * changes nothing and answers false.
  */
 export async function saveConfig(db: Db, workshopId: string, id: string, config: Config, expectedVersion: number) {
+  const now = new Date();
   const r = await db
     .updateTable("builds")
-    .set((eb) => ({ config: JSON.stringify(config), config_version: eb("config_version", "+", 1), updated_at: new Date() }))
+    // config_saved_at moves only here (and at creation): renders print it, so a rename or a
+    // status change leaves a rendered header byte-for-byte the same.
+    .set((eb) => ({ config: JSON.stringify(config), config_version: eb("config_version", "+", 1), config_saved_at: now, updated_at: now }))
     .where("workshop_id", "=", workshopId)
     .where("id", "=", id)
     .where("config_version", "=", expectedVersion)
