@@ -5,10 +5,12 @@ import * as m0001 from "./20261202_0001_foundation";
 import * as m0300 from "./20261202_0300_templates";
 import * as m0400 from "./20261202_0400_template_delete";
 import * as m0500 from "./20261202_0500_config_saved_at";
+import * as m0600 from "./20261202_0600_template_version_uses";
 
 export const migrations: Record<string, Migration> = {
   "20261202_0001_foundation": m0001,
   "20261202_0300_templates": m0300,
   "20261202_0400_template_delete": m0400,
   "20261202_0500_config_saved_at": m0500,
+  "20261202_0600_template_version_uses": m0600,
 };

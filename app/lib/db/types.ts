@@ -71,12 +71,17 @@ export interface TemplatesTable {
 }
 
 /** Immutable: a new save is a new row. */
+/** name → the template and version a saved version resolves `use "name"` to (transitively). */
+export type TemplateUses = Record<string, { id: string; version: number }>;
+
 export interface TemplateVersionsTable {
   template_id: string;
   version: number;
   source: string;
   created_by: string | null;
   created_at: Timestamp;
+  /** Null until recorded; set once (migration 0600). */
+  uses: ColumnType<TemplateUses | null, string | null | undefined, string | null>;
 }
 
 export interface SessionsTable {

@@ -1,7 +1,7 @@
 // Workshop templates: a name per workshop and an append-only list of versions. A save is a new
 // version row; nothing here ever updates a version. Every read is scoped to the workshop.
-import type { Kysely } from "kysely";
-import type { Database } from "../db/types";
+import { sql, type Kysely } from "kysely";
+import type { Database, TemplateUses } from "../db/types";
 import { partialsUsed } from "../template/partials-used";
 import { isUuid } from "./builds.server";
 
@@ -72,6 +72,83 @@ export async function latestSources(db: Db, workshopId: string): Promise<Record<
   return out;
 }
 
+/**
+ * What `source` uses, followed through the templates it uses: each workshop template reached by
+ * `use "name"`, at its latest version now. A name that is no workshop template (a built-in, or
+ * nothing yet) is left out and resolves as it does today.
+ */
+export async function usesOf(db: Db, workshopId: string, source: string): Promise<TemplateUses> {
+  const uses: TemplateUses = Object.create(null);
+  let pending = [...partialsUsed(source)];
+  while (pending.length) {
+    const rows = await db
+      .selectFrom("template_versions as v")
+      .innerJoin("templates as t", "t.id", "v.template_id")
+      .select(["t.id", "t.name", "v.version", "v.source"])
+      .where("t.workshop_id", "=", workshopId)
+      .where("t.name", "in", pending)
+      .where("v.version", "=", (eb) => eb.selectFrom("template_versions as w").select((e) => e.fn.max("w.version").as("m")).whereRef("w.template_id", "=", "t.id"))
+      .execute();
+    for (const name of pending) if (!Object.hasOwn(uses, name)) uses[name] = { id: "", version: 0 };
+    const next = new Set<string>();
+    for (const r of rows) {
+      uses[r.name] = { id: r.id, version: r.version };
+      for (const n of partialsUsed(r.source)) if (!Object.hasOwn(uses, n)) next.add(n);
+    }
+    pending = [...next];
+  }
+  // Names that matched no workshop template were placeholders for the walk.
+  for (const name of Object.keys(uses)) if (!uses[name].id) delete uses[name];
+  return uses;
+}
+
+/**
+ * name → source of the partials a saved version renders with: the versions it recorded when it
+ * was saved. A version saved before they were recorded records them now, once, so from its
+ * first render on its output no longer follows later edits of its partials.
+ */
+export async function sourcesForVersion(db: Db, workshopId: string, id: string, version: number): Promise<{ sources: Record<string, string>; uses: TemplateUses }> {
+  const row = await db
+    .selectFrom("template_versions as v")
+    .innerJoin("templates as t", "t.id", "v.template_id")
+    .select(["v.source", "v.uses"])
+    .where("t.workshop_id", "=", workshopId)
+    .where("v.template_id", "=", id)
+    .where("v.version", "=", version)
+    .executeTakeFirst();
+  if (!row) return { sources: Object.create(null), uses: Object.create(null) };
+  let uses = row.uses;
+  if (!uses) {
+    await db
+      .updateTable("template_versions")
+      .set({ uses: JSON.stringify(await usesOf(db, workshopId, row.source)) })
+      .where("template_id", "=", id)
+      .where("version", "=", version)
+      .where("uses", "is", null)
+      .execute();
+    const again = await db.selectFrom("template_versions").select("uses").where("template_id", "=", id).where("version", "=", version).executeTakeFirstOrThrow();
+    uses = again.uses ?? Object.create(null);
+  }
+  const sources: Record<string, string> = Object.create(null);
+  const pairs = Object.entries(uses!);
+  if (pairs.length) {
+    const rows = await db
+      .selectFrom("template_versions as v")
+      .innerJoin("templates as t", "t.id", "v.template_id")
+      .select(["t.id", "v.version", "v.source"])
+      .where("t.workshop_id", "=", workshopId)
+      .where((eb) => eb.or(pairs.map(([, u]) => eb.and([eb("v.template_id", "=", u.id), eb("v.version", "=", u.version)]))))
+      .execute();
+    const byKey = new Map(rows.map((r) => [`${r.id}@${r.version}`, r.source]));
+    // A partial deleted since (only possible when no pinned build needed it) is simply missing.
+    for (const [name, u] of pairs) {
+      const src = byKey.get(`${u.id}@${u.version}`);
+      if (src !== undefined) sources[name] = src;
+    }
+  }
+  return { sources, uses: uses! };
+}
+
 export type CreateResult = { kind: "created"; id: string } | { kind: "taken" };
 
 /** A new template with its version 1, or "taken" when the workshop already has the name. */
@@ -84,7 +161,8 @@ export async function createTemplate(db: Db, workshopId: string, userId: string 
       .returning("id")
       .executeTakeFirst();
     if (!row) return { kind: "taken" } as const;
-    await trx.insertInto("template_versions").values({ template_id: row.id, version: 1, source, created_by: userId }).execute();
+    const uses = JSON.stringify(await usesOf(trx, workshopId, source));
+    await trx.insertInto("template_versions").values({ template_id: row.id, version: 1, source, created_by: userId, uses }).execute();
     return { kind: "created", id: row.id } as const;
   });
 }
@@ -99,13 +177,21 @@ export type SaveVersionResult = { kind: "saved"; version: number } | { kind: "st
 export async function saveTemplateVersion(db: Db, workshopId: string, id: string, userId: string | null, source: string, expectedLatest: number): Promise<SaveVersionResult> {
   const t = await getTemplate(db, workshopId, id);
   if (!t) return { kind: "missing" };
+  // The partials' versions as they are now: what this version renders with from now on.
+  const uses = JSON.stringify(await usesOf(db, workshopId, source));
   const r = await db
     .insertInto("template_versions")
-    .columns(["template_id", "version", "source", "created_by"])
+    .columns(["template_id", "version", "source", "created_by", "uses"])
     .expression((eb) =>
       eb
         .selectFrom("template_versions")
-        .select((e) => [e.val(id).as("template_id"), e(e.fn.max("version"), "+", 1).as("version"), e.val(source).as("source"), e.val(userId).as("created_by")])
+        .select((e) => [
+          e.val(id).as("template_id"),
+          e(e.fn.max("version"), "+", 1).as("version"),
+          e.val(source).as("source"),
+          e.val(userId).as("created_by"),
+          sql<string>`${uses}::jsonb`.as("uses"),
+        ])
         .where("template_id", "=", id)
         .having((e) => e.fn.max("version"), "=", expectedLatest),
     )
