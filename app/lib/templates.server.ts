@@ -4,7 +4,8 @@ import type { Viewer } from "./auth.server";
 import { db } from "./db.server";
 import { fail } from "./http.server";
 import { BUILTIN_TEMPLATES, type Limits } from "./template";
-import { BUILTIN_VERSION, compileAndRender, isBuiltinName, metaForBuild, type RenderOutcome } from "./template-render";
+import { renderOffThread } from "./template-pool.server";
+import { BUILTIN_VERSION, isBuiltinName, metaForBuild, type RenderOutcome } from "./template-render";
 import { getTemplateVersion, latestSources } from "./repo/templates.server";
 import { isUuid } from "./repo/builds.server";
 
@@ -25,7 +26,10 @@ export async function pinnedTemplate(v: Viewer, b: { pinned_template_id: string 
   return resolveTemplate(v, "generic-header");
 }
 
-/** API renders get a shorter clock than the editor: a runaway template costs a request at most this. */
+/**
+ * Server renders (the API and the Render view) get a shorter clock than the editor's preview in
+ * the browser. They run in a worker (decision 007), terminated at this plus KILL_MARGIN_MS.
+ */
 export const API_LIMITS: Partial<Limits> = { maxMillis: 500 };
 
 export async function renderBuildWith(
@@ -35,7 +39,7 @@ export async function renderBuildWith(
   limits?: Partial<Limits>,
 ): Promise<RenderOutcome> {
   const partials = await latestSources(db(), v.workshop.id);
-  return compileAndRender(t.source, b.config as never, metaForBuild(b, t), { partials, limits });
+  return renderOffThread(t.source, b.config as never, metaForBuild(b, t), { partials, limits });
 }
 
 /** A render failure as the API's error list, with the limit named when a budget stopped it. */

@@ -8,7 +8,8 @@ import { validateConfig } from "~/lib/config/validate";
 import { db } from "~/lib/db.server";
 import { apiAnswer, fail, json } from "~/lib/http.server";
 import { latestSources } from "~/lib/repo/templates.server";
-import { BUILTIN_VERSION, compileAndRender, metaForBuild } from "~/lib/template-render";
+import { renderOffThread } from "~/lib/template-pool.server";
+import { BUILTIN_VERSION, metaForBuild } from "~/lib/template-render";
 import { API_LIMITS, apiErrors, resolveTemplate, type ResolvedTemplate } from "~/lib/templates.server";
 import type { Route } from "./+types/api.render";
 
@@ -68,16 +69,18 @@ export function action({ request }: Route.ActionArgs) {
       config = b.config;
     } else {
       const checked = validateConfig(body.data.config);
-      if (!checked.config)
-        return json(
-          { error: "The config does not have the model's shape; fix it before rendering.", diagnostics: checked.diagnostics.filter((d) => d.severity === "error") },
-          { status: 422 },
-        );
+      if (!checked.config) {
+        // The same 422 shape as a template error; `path` names the config field.
+        const errors = checked.diagnostics
+          .filter((d) => d.severity === "error")
+          .map((d) => ({ stage: "config" as const, message: d.message, line: null, column: null, path: d.path }));
+        return json({ error: "The config does not have the model's shape; fix it before rendering.", errors }, { status: 422 });
+      }
       config = checked.config;
       build = { name: "Posted config", client_name: "", config_saved_at: new Date(0) };
     }
     const partials = await latestSources(db(), v.workshop.id);
-    const r = compileAndRender(t.source, config as never, metaForBuild(build, t), { partials, limits: API_LIMITS });
+    const r = await renderOffThread(t.source, config as never, metaForBuild(build, t), { partials, limits: API_LIMITS });
     if (!r.ok) return json({ errors: apiErrors(r, API_LIMITS) }, { status: 422 });
     return new Response(r.output, { headers: { "Content-Type": "text/plain; charset=utf-8", "Cache-Control": "no-store", "X-Template": `${t.name}@${t.version}` } });
   });

@@ -14,7 +14,7 @@ import { can } from "~/lib/permissions";
 import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate } from "~/lib/repo/templates.server";
 import { readHeader, type ReadError } from "~/lib/template";
 import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
-import { pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/templates.server";
+import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/templates.server";
 import type { Route } from "./+types/builds.$buildId.render";
 
 export const meta: Route.MetaFunction = ({ matches }) => {
@@ -32,7 +32,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const pinned = await pinnedTemplate(v, b);
   const ref = url.searchParams.get("template");
   const t = !ref || ref === (pinned.id ?? pinned.name) ? pinned : await resolveTemplate(v, ref);
-  const r = await renderBuildWith(v, b, t);
+  // In a worker, with the API's clock (decision 007): this page renders on the server too.
+  const r = await renderBuildWith(v, b, t, API_LIMITS);
   const workshop = await listTemplates(db(), v.workshop.id);
   const pinnedLatest = pinned.id ? workshop.find((w) => w.id === pinned.id)?.latest ?? pinned.version : null;
   return {
@@ -45,7 +46,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       ...BUILTIN_NAMES.map((n) => ({ ref: n, label: `${n} (built-in)` })),
       ...workshop.map((w) => ({ ref: w.id, label: `${w.name} (v${w.id === pinned.id ? pinned.version : w.latest})` })),
     ],
-    result: r.ok ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: r.errors.map((e) => ({ line: e.line, column: e.column, stage: e.stage, message: e.message })) },
+    result: r.ok ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: apiErrors(r, API_LIMITS) },
     canEdit: can(v.role, "edit:build"),
   };
 }

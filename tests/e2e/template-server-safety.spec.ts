@@ -1,0 +1,144 @@
+// Server renders run in worker threads (decision 007): while a runaway template is being
+// stopped, the server keeps answering other requests. Timed against the built app that
+// `npm test` starts; the render API is called with a personal token as a script would.
+import { createHash, randomBytes } from "node:crypto";
+import type { APIRequestContext, APIResponse } from "@playwright/test";
+import type pg from "pg";
+import { test, expect, buildIdByName, BASE_URL, signInRequest } from "./fixtures";
+import { insertTemplate, uniq } from "./template-helpers";
+
+async function tokenFor(sql: pg.Pool, login: string): Promise<string> {
+  const token = `hbt_${randomBytes(32).toString("base64url")}`;
+  const user = await sql.query("SELECT id FROM users WHERE github_login = $1", [login]);
+  await sql.query("INSERT INTO api_tokens (user_id, name, token_hash, prefix) VALUES ($1, $2, $3, $4)", [
+    user.rows[0].id,
+    "server safety e2e",
+    createHash("sha256").update(token).digest("hex"),
+    token.slice(0, 10),
+  ]);
+  return token;
+}
+
+/**
+ * Eight nested loops over the presets with a few hundred statements per pass: far more work
+ * than 500 ms allows and far fewer than 1,000,000 steps in that time, so the time limit is
+ * what stops it.
+ */
+const RUNAWAY = "@[ let x = 0 ]@" + "@[ over config.presets as a ]@".repeat(8) + "@[ let x = x + 1 ]@".repeat(400) + "@[ /over ]@".repeat(8) + "@( x )@";
+const LIMIT_MESSAGE = /took longer than the time limit of 500 ms/;
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+/** GET /healthz, timed from the request to the whole answer. */
+async function timedHealth(request: APIRequestContext): Promise<{ status: number; ms: number }> {
+  const t0 = performance.now();
+  const r = await request.get("/healthz");
+  await r.body();
+  return { status: r.status(), ms: performance.now() - t0 };
+}
+
+async function kestrelConfig(sql: pg.Pool) {
+  return (await sql.query("SELECT config FROM builds WHERE name = 'Kestrel' ORDER BY created_at LIMIT 1")).rows[0].config;
+}
+
+test.describe("a runaway template does not hold up the server", () => {
+  let api: APIRequestContext;
+  test.beforeAll(async ({ playwright }) => {
+    const pool = new (await import("pg")).default.Pool({ connectionString: process.env.DATABASE_URL, max: 1 });
+    const token = await tokenFor(pool, "demo-builder");
+    await pool.end();
+    api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Authorization: `Bearer ${token}` } });
+  });
+  test.afterAll(async () => {
+    await api.dispose();
+  });
+
+  test("GET /healthz answers within 300 ms while POST /api/render runs a runaway, which gets a 422 naming the limit", async ({ playwright, sql }) => {
+    const config = await kestrelConfig(sql);
+    const other = await playwright.request.newContext({ baseURL: BASE_URL });
+    // Warm: the first render starts the pool's workers.
+    expect((await api.post("/api/render", { data: { config, template: { source: "@( config.presets |> count )@" } } })).status()).toBe(200);
+
+    const t0 = performance.now();
+    const runaway = api.post("/api/render", { data: { config, template: { source: RUNAWAY } } });
+    await sleep(50);
+    const health: { status: number; ms: number }[] = [];
+    // Three in a row, all while the runaway is still going (it runs for at least 500 ms).
+    for (let i = 0; i < 3; i++) health.push(await timedHealth(other));
+    const answered: APIResponse = await runaway;
+    const runawayMs = performance.now() - t0;
+    console.log(`healthz during a runaway render: ${health.map((h) => `${h.ms.toFixed(0)} ms`).join(", ")}; the runaway answered after ${runawayMs.toFixed(0)} ms`);
+
+    for (const h of health) {
+      expect(h.status).toBe(200);
+      expect(h.ms).toBeLessThan(300);
+    }
+    expect(health.reduce((s, h) => s + h.ms, 0) + 50).toBeLessThan(runawayMs);
+    expect(answered.status()).toBe(422);
+    const errors = (await answered.json()).errors;
+    expect(errors).toHaveLength(1);
+    expect(errors[0]).toMatchObject({ stage: "render", message: expect.stringMatching(LIMIT_MESSAGE), line: expect.any(Number), column: expect.any(Number) });
+    // Stopped near its limit: 500 ms, plus at most the pool's 250 ms margin and the round trip.
+    expect(runawayMs).toBeGreaterThanOrEqual(450);
+    expect(runawayMs).toBeLessThan(3000);
+    await other.dispose();
+  });
+
+  test("with every worker busy on a runaway, other renders wait their turn and /healthz still answers", async ({ playwright, sql }) => {
+    const config = await kestrelConfig(sql);
+    const other = await playwright.request.newContext({ baseURL: BASE_URL });
+    const runaways = [0, 1].map(() => api.post("/api/render", { data: { config, template: { source: RUNAWAY } } }));
+    await sleep(50);
+    const quick = api.post("/api/render", { data: { config, template: { source: "@( config.presets |> count )@ presets" } } });
+    const health = await timedHealth(other);
+    expect(health.status).toBe(200);
+    expect(health.ms).toBeLessThan(300);
+    const done = await quick;
+    expect(done.status()).toBe(200);
+    expect(await done.text()).toBe(`${config.presets.length} presets`);
+    for (const r of await Promise.all(runaways)) {
+      expect(r.status()).toBe(422);
+      expect((await r.json()).errors[0].message).toMatch(LIMIT_MESSAGE);
+    }
+    await other.dispose();
+  });
+
+  test("an invalid posted config answers 422 with the API's error list", async ({ sql }) => {
+    const config = await kestrelConfig(sql);
+    config.rig.channels[0].pixels = "many"; // not the model's shape: the config is refused before rendering
+    const r = await api.post("/api/render", { data: { config, template: { builtin: "generic-header" } } });
+    expect(r.status()).toBe(422);
+    const body = await r.json();
+    expect(body.error).toBe("The config does not have the model's shape; fix it before rendering.");
+    expect(body.errors.length).toBeGreaterThan(0);
+    for (const e of body.errors) expect(e).toEqual({ stage: "config", message: expect.any(String), line: null, column: null, path: expect.any(String) });
+    expect(body.errors.map((e: { path: string }) => e.path)).toContain("rig.channels[0].pixels");
+    expect(body).not.toHaveProperty("diagnostics");
+  });
+});
+
+test("the Render view stops a runaway workshop template at the API's limit and the server stays responsive", async ({ request, playwright, sql }) => {
+  const kestrel = await buildIdByName(sql, "Kestrel");
+  const id = await insertTemplate(sql, `runaway-${uniq()}`, [RUNAWAY]);
+  try {
+    await signInRequest(request, "demo-builder");
+    const other = await playwright.request.newContext({ baseURL: BASE_URL });
+    const t0 = performance.now();
+    const page = request.get(`/builds/${kestrel}/render?template=${id}`);
+    await sleep(50);
+    const health = await timedHealth(other);
+    const answered = await page;
+    const ms = performance.now() - t0;
+    expect(health.status).toBe(200);
+    expect(health.ms).toBeLessThan(300);
+    expect(answered.status()).toBe(200);
+    const html = await answered.text();
+    expect(html).toContain("The template did not render this build:");
+    expect(html).toMatch(LIMIT_MESSAGE);
+    // The page's clock is the API's (500 ms), not the editor's 2 s.
+    expect(ms).toBeLessThan(1800);
+    await other.dispose();
+  } finally {
+    await sql.query("DELETE FROM templates WHERE id = $1", [id]);
+  }
+});
