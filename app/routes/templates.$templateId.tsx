@@ -6,6 +6,7 @@
 import type { Diagnostic as CmDiagnostic } from "@codemirror/lint";
 import { useEffect, useMemo, useState } from "react";
 import { data, Form, Link, redirect, useFetcher, useSubmit } from "react-router";
+import { CodeFrame } from "~/components/templates/CodeFrame";
 import { CodeView } from "~/components/templates/CodeView";
 import { DeleteTemplate, type DeleteAnswer } from "~/components/templates/DeleteTemplate";
 import { VersionDiff, type CompareData } from "~/components/templates/VersionDiff";
@@ -174,12 +175,17 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
     // Drafts are compiled once and dropped: caching them would only fill the caches.
     return compileAndRender(settled, build.config, metaForBuild(build, { name: template.name, version: template.latest }), { partials, cache: false });
   }, [settled, build, partials, template.name, template.latest]);
-  const problems = outcome ? (outcome.ok ? outcome.warnings : [...outcome.errors, ...outcome.warnings]) : [];
-  const diagnostics = useMemo(() => toCm(problems), [outcome]); // eslint-disable-line react-hooks/exhaustive-deps
+  // No build to preview with (a workshop without builds): still check the draft, so its
+  // problems show; there is just nothing to render.
+  const checked = useMemo(() => (build ? null : compileTemplate(settled, { partials: partialsFrom(partials), cache: false })), [settled, build, partials]);
+  const problems = outcome ? (outcome.ok ? outcome.warnings : [...outcome.errors, ...outcome.warnings]) : checked ? (checked.ok ? checked.warnings : checked.errors) : [];
+  const diagnostics = useMemo(() => toCm(problems), [outcome, checked]); // eslint-disable-line react-hooks/exhaustive-deps
   const save = useFetcher<SaveAnswer>();
   const submit = useSubmit();
   const dirty = source !== template.source;
   const answer = save.data;
+  // The source a refused save was sent with, so its errors' code frames quote what was refused.
+  const [sent, setSent] = useState(template.source);
   const viewingOld = template.kind === "workshop" && template.version !== template.latest;
 
   return (
@@ -218,7 +224,7 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           </noscript>
         </Form>
         {canEdit ? (
-          <save.Form method="post" className="flex items-center gap-3">
+          <save.Form method="post" className="flex items-center gap-3" onSubmit={() => setSent(source)}>
             <input type="hidden" name="source" value={source} />
             <input type="hidden" name="latest" value={template.latest} />
             <button className="btn btn-primary" type="submit" disabled={save.state !== "idle" || (!dirty && !viewingOld)}>
@@ -246,6 +252,23 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
         ) : null}
       </div>
 
+      {canEdit && save.state === "idle" && answer && !answer.ok && answer.errors?.length ? (
+        <section aria-label="Why the save was refused" className="rounded-md border border-signal-error/50 p-3 text-sm" data-testid="save-errors">
+          <p className="text-signal-error">{answer.message} Fix these in the source and save again:</p>
+          <ul className="mt-2 space-y-2">
+            {answer.errors.map((e, i) => (
+              <li key={i} className="text-signal-error" data-testid="save-error">
+                <span className="font-mono">
+                  {e.line}:{e.column}
+                </span>{" "}
+                {e.severity} ({e.stage}): {e.message}
+                <CodeFrame source={sent} error={e} />
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+
       {compare ? (
         <VersionDiff
           name={template.name}
@@ -269,11 +292,12 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
             ) : (
               <ul aria-label="Problems" className="space-y-1 text-sm" data-testid="problems">
                 {problems.map((p, i) => (
-                  <li key={i} className={p.severity === "error" ? "text-signal-error" : "text-signal-warning"}>
+                  <li key={i} className={p.severity === "error" ? "text-signal-error" : "text-signal-warning"} data-testid="problem">
                     <span className="font-mono">
                       {p.line}:{p.column}
                     </span>{" "}
                     {p.severity} ({p.stage}): {p.message}
+                    <CodeFrame source={settled} error={p} />
                   </li>
                 ))}
               </ul>

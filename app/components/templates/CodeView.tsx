@@ -2,7 +2,7 @@
 // view (read-only C or plain text). Diagnostics are pushed in from outside with setDiagnostics,
 // so the page that compiles the template owns them.
 import { cpp } from "@codemirror/lang-cpp";
-import { lintGutter, setDiagnostics, type Diagnostic } from "@codemirror/lint";
+import { lintGutter, linter, setDiagnostics, type Diagnostic } from "@codemirror/lint";
 import { EditorView } from "@codemirror/view";
 import CodeMirror, { type Extension } from "@uiw/react-codemirror";
 import { useEffect, useMemo, useRef } from "react";
@@ -33,7 +33,10 @@ export function CodeView(props: {
   const view = useRef<EditorView | null>(null);
   const extensions = useMemo<Extension[]>(() => {
     const ext: Extension[] = [theme, EditorView.contentAttributes.of({ "aria-label": label })];
-    if (language === "template") ext.push(hbTemplateLanguage(), lintGutter());
+    // linter(null) runs no linter; it makes the diagnostics' state part of the base config, so
+    // the wrapper's reconfigure right after creation keeps the diagnostics a page loaded with
+    // (otherwise setDiagnostics adds that state on the side and the reconfigure drops it).
+    if (language === "template") ext.push(hbTemplateLanguage(), linter(null), lintGutter());
     if (language === "c") ext.push(cpp());
     return ext;
   }, [language, label]);
