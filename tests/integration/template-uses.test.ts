@@ -4,7 +4,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { sql, type Kysely } from "kysely";
 import type { Database } from "~/lib/db/types";
 import { demoConfig } from "~/lib/config/demo";
-import { createTemplate, latestSources, saveTemplateVersion, sourcesForVersion, usesOf } from "~/lib/repo/templates.server";
+import { createTemplate, latestSources, pinTemplate, saveTemplateVersion, sourcesForVersion, templateDependents, usesOf } from "~/lib/repo/templates.server";
 import { compileAndRender } from "~/lib/template-render";
 import { seed } from "../../db/seed";
 import { freshDb, hasDatabase } from "./db";
@@ -49,6 +49,13 @@ describe.runIf(hasDatabase)("partials recorded per template version (PostgreSQL)
     expect(await saveTemplateVersion(db, ws, outer, null, 'A @[ use "inner" ]@ Z', 1)).toEqual({ kind: "saved", version: 2 });
     expect(await renderVersion(outer, 2)).toBe("A [inner three [deep two]] Z");
     expect(await renderVersion(outer, 1)).toBe("A [inner two [deep one]] Z");
+
+    // A build pinned to outer v1 reaches deep only through inner v2's recorded use: deep stays.
+    await saveTemplateVersion(db, ws, inner, null, "[inner four, alone]", 3);
+    const kestrel = (await db.selectFrom("builds").select("id").where("workshop_id", "=", ws).where("name", "=", "Kestrel").executeTakeFirstOrThrow()).id;
+    expect(await pinTemplate(db, ws, kestrel, { templateId: outer, version: 1 })).toBe(true);
+    const d = await templateDependents(db, ws, deep, "deep");
+    expect(d.usedThroughPins.map((b) => [b.name, b.template, b.version])).toEqual([["Kestrel", "outer", 1]]);
   });
 
   it("records a version saved before recording existed at its first render, once", async () => {

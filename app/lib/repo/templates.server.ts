@@ -237,7 +237,7 @@ export async function templateDependents(db: Db, workshopId: string, id: string,
     .selectFrom("builds as b")
     .innerJoin("template_versions as v", (j) => j.onRef("v.template_id", "=", "b.pinned_template_id").onRef("v.version", "=", "b.pinned_template_version"))
     .innerJoin("templates as t", "t.id", "v.template_id")
-    .select(["b.id", "b.name", "b.archived_at", "t.id as template_id", "t.name as template_name", "v.version", "v.source"])
+    .select(["b.id", "b.name", "b.archived_at", "t.id as template_id", "t.name as template_name", "v.version", "v.source", "v.uses"])
     .where("b.workshop_id", "=", workshopId)
     .orderBy("b.name")
     .execute();
@@ -257,7 +257,12 @@ export async function templateDependents(db: Db, workshopId: string, id: string,
     usedBy,
     // A pin on another template's latest version is already covered by usedBy.
     usedThroughPins: pins
-      .filter((p) => p.template_id !== id && latestSource.get(p.template_id) !== p.source && partialsUsed(p.source).has(name))
+      // Through the pinned version's recorded partials too: it may reach this one through another.
+      .filter(
+        (p) =>
+          p.template_id !== id &&
+          ((latestSource.get(p.template_id) !== p.source && partialsUsed(p.source).has(name)) || Object.values(p.uses ?? {}).some((u) => u.id === id)),
+      )
       .map((p) => ({ id: p.id, name: p.name, template: p.template_name, version: p.version })),
   };
 }
