@@ -6,7 +6,7 @@ import { fail } from "./http.server";
 import { BUILTIN_TEMPLATES, type Limits } from "./template";
 import { renderOffThread } from "./template-pool.server";
 import { BUILTIN_VERSION, isBuiltinName, metaForBuild, type RenderOutcome } from "./template-render";
-import { getTemplateVersion, latestSources } from "./repo/templates.server";
+import { getTemplateVersion, latestSources, sourcesForVersion } from "./repo/templates.server";
 import { isUuid } from "./repo/builds.server";
 
 export type ResolvedTemplate = { kind: "builtin" | "workshop" | "source"; id: string | null; name: string; version: number; source: string };
@@ -38,8 +38,18 @@ export async function renderBuildWith(
   t: ResolvedTemplate,
   limits?: Partial<Limits>,
 ): Promise<RenderOutcome> {
-  const partials = await latestSources(db(), v.workshop.id);
+  const partials = await partialsFor(v, t);
   return renderOffThread(t.source, b.config as never, metaForBuild(b, t), { partials, limits });
+}
+
+/**
+ * The workshop templates `use "name"` resolves to: for a saved version, the versions it recorded
+ * when it was saved (decision 005), so its bytes do not follow later edits of its partials;
+ * for a built-in or posted source, the latest of each.
+ */
+export async function partialsFor(v: Viewer, t: ResolvedTemplate): Promise<Record<string, string>> {
+  if (t.kind === "workshop" && t.id) return (await sourcesForVersion(db(), v.workshop.id, t.id, t.version)).sources;
+  return latestSources(db(), v.workshop.id);
 }
 
 /** A render failure as the API's error list, with the limit named when a budget stopped it. */

@@ -5,12 +5,10 @@ import { requireViewer } from "~/lib/auth.server";
 import { readJsonBody } from "~/lib/body.server";
 import { loadBuildFor } from "~/lib/build-access.server";
 import { validateConfig } from "~/lib/config/validate";
-import { db } from "~/lib/db.server";
 import { apiAnswer, fail, json } from "~/lib/http.server";
-import { latestSources } from "~/lib/repo/templates.server";
 import { renderOffThread } from "~/lib/template-pool.server";
 import { BUILTIN_VERSION, metaForBuild } from "~/lib/template-render";
-import { API_LIMITS, apiErrors, resolveTemplate, type ResolvedTemplate } from "~/lib/templates.server";
+import { API_LIMITS, apiErrors, partialsFor, resolveTemplate, type ResolvedTemplate } from "~/lib/templates.server";
 import type { Route } from "./+types/api.render";
 
 /** Templates are tens of kilobytes and configs a few hundred; a render request stays under 1 MB. */
@@ -79,7 +77,7 @@ export function action({ request }: Route.ActionArgs) {
       config = checked.config;
       build = { name: "Posted config", client_name: "", config_saved_at: new Date(0) };
     }
-    const partials = await latestSources(db(), v.workshop.id);
+    const partials = await partialsFor(v, t);
     const r = await renderOffThread(t.source, config as never, metaForBuild(build, t), { partials, limits: API_LIMITS });
     if (!r.ok) return json({ errors: apiErrors(r, API_LIMITS) }, { status: 422 });
     return new Response(r.output, { headers: { "Content-Type": "text/plain; charset=utf-8", "Cache-Control": "no-store", "X-Template": `${t.name}@${t.version}` } });

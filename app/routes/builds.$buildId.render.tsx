@@ -11,7 +11,7 @@ import { validateConfig, type Diagnostic } from "~/lib/config/validate";
 import { db } from "~/lib/db.server";
 import { fail } from "~/lib/http.server";
 import { can } from "~/lib/permissions";
-import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate } from "~/lib/repo/templates.server";
+import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate, sourcesForVersion } from "~/lib/repo/templates.server";
 import { readHeader, type ReadError } from "~/lib/template";
 import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
 import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/templates.server";
@@ -35,12 +35,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   // In a worker, with the API's clock (decision 007): this page renders on the server too.
   const r = await renderBuildWith(v, b, t, API_LIMITS);
   const workshop = await listTemplates(db(), v.workshop.id);
+  // The workshop templates this version uses, at the versions it recorded when it was saved.
+  const uses = t.kind === "workshop" && t.id ? Object.entries((await sourcesForVersion(db(), v.workshop.id, t.id, t.version)).uses).map(([name, u]) => ({ name, version: u.version })) : [];
   const pinnedLatest = pinned.id ? workshop.find((w) => w.id === pinned.id)?.latest ?? pinned.version : null;
   return {
     buildId: b.id,
     buildName: b.name,
     configVersion: b.config_version,
-    template: { id: t.id, name: t.name, version: t.version, kind: t.kind, ref: t.id ?? t.name },
+    template: { id: t.id, name: t.name, version: t.version, kind: t.kind, ref: t.id ?? t.name, uses },
     pinned: { id: pinned.id, name: pinned.name, version: pinned.version, latest: pinnedLatest },
     choices: [
       ...BUILTIN_NAMES.map((n) => ({ ref: n, label: `${n} (built-in)` })),
@@ -160,6 +162,17 @@ export default function RenderPage({ loaderData }: Route.ComponentProps) {
             Rendered with <strong className="font-mono">{template.name}</strong> version {template.version}
             {isPinned ? <span className="ml-2 rounded bg-soot-700 px-2 py-0.5 text-xs">this build's template</span> : null}
           </p>
+          {template.uses.length ? (
+            <p className="text-sm text-iron-300" data-testid="render-template-uses">
+              Uses, as they were when version {template.version} was saved:{" "}
+              {template.uses.map((u, i) => (
+                <span key={u.name}>
+                  {i ? ", " : ""}
+                  <span className="font-mono">{u.name}</span> v{u.version}
+                </span>
+              ))}
+            </p>
+          ) : null}
         </div>
 
         <div className="flex flex-wrap items-center gap-3">

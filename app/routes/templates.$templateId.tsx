@@ -17,17 +17,7 @@ import { db } from "~/lib/db.server";
 import { fail } from "~/lib/http.server";
 import { can } from "~/lib/permissions";
 import { getBuild, listBuilds } from "~/lib/repo/builds.server";
-import {
-  deleteTemplate,
-  describeDependents,
-  getTemplate,
-  getTemplateVersion,
-  latestSources,
-  listVersions,
-  saveTemplateVersion,
-  templateDependents,
-  type TemplateDependents,
-} from "~/lib/repo/templates.server";
+import { deleteTemplate, describeDependents, getTemplate, getTemplateVersion, latestSources, listVersions, saveTemplateVersion, templateDependents, type TemplateDependents, sourcesForVersion, usesOf } from "~/lib/repo/templates.server";
 import { BUILTIN_TEMPLATES, compileTemplate, type TemplateError } from "~/lib/template";
 import { diffVersions, parseCompare } from "~/lib/template-diff";
 import { BUILTIN_VERSION, compileAndRender, isBuiltinName, metaForBuild, partialsFrom } from "~/lib/template-render";
@@ -68,6 +58,16 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     versions = all.map((x) => ({ version: x.version, createdAt: x.created_at.toISOString(), author: x.author }));
     template = { id: t.id, name: t.name, kind: "workshop", version: row.version, latest: all[0]?.version ?? row.version, source: row.source };
   }
+  // Templates this one uses that have moved on since its latest version was saved (which renders
+  // with the versions it recorded): a save, even of the same source, takes the newer ones in.
+  let newerPartials: { name: string; version: number; was: number | null }[] = [];
+  if (template.kind === "workshop" && template.version === template.latest) {
+    const recorded = (await sourcesForVersion(db(), v.workshop.id, template.id, template.version)).uses;
+    const now = await usesOf(db(), v.workshop.id, template.source);
+    newerPartials = Object.entries(now)
+      .filter(([name, u]) => recorded[name]?.id !== u.id || recorded[name]?.version !== u.version)
+      .map(([name, u]) => ({ name, version: u.version, was: recorded[name]?.id === u.id ? recorded[name].version : null }));
+  }
   const compareParam = url.searchParams.get("compare");
   let compare: Omit<CompareData, "closeHref"> | null = null;
   if (compareParam !== null) {
@@ -99,6 +99,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     canEdit,
     compare,
     dependents,
+    newerPartials,
   };
 }
 
@@ -163,7 +164,7 @@ function useDebounced<T>(value: T, ms: number): T {
 }
 
 export default function TemplateEditorPage({ loaderData }: Route.ComponentProps) {
-  const { template, versions, partials: stored, builds, build, canEdit, compare, dependents } = loaderData;
+  const { template, versions, partials: stored, builds, build, canEdit, compare, dependents, newerPartials } = loaderData;
   const [source, setSource] = useState(template.source);
   // A different template or version loaded: start from its source.
   useEffect(() => setSource(template.source), [template.id, template.version, template.source]);
@@ -227,13 +228,26 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           <save.Form method="post" className="flex items-center gap-3" onSubmit={() => setSent(source)}>
             <input type="hidden" name="source" value={source} />
             <input type="hidden" name="latest" value={template.latest} />
-            <button className="btn btn-primary" type="submit" disabled={save.state !== "idle" || (!dirty && !viewingOld)}>
+            <button className="btn btn-primary" type="submit" disabled={save.state !== "idle" || (!dirty && !viewingOld && newerPartials.length === 0)}>
               Save as version {template.latest + 1}
             </button>
             <span role="status" className="text-sm" data-testid="save-status">
               {save.state !== "idle" ? "Saving…" : answer?.ok ? `Saved version ${answer.version}.` : answer ? <span className="text-signal-error">{answer.message}</span> : dirty ? "Unsaved changes" : ""}
             </span>
           </save.Form>
+        ) : null}
+        {newerPartials.length ? (
+          <p className="w-full text-sm text-iron-300" data-testid="newer-partials">
+            Newer versions of templates this one uses:{" "}
+            {newerPartials.map((p, i) => (
+              <span key={p.name}>
+                {i ? ", " : ""}
+                <span className="font-mono">{p.name}</span> v{p.version}
+                {p.was !== null ? ` (version ${template.version} renders with v${p.was})` : ""}
+              </span>
+            ))}
+            . {canEdit ? "Saving, even unchanged, takes them in; builds follow when their pin is moved." : "A builder can save again to take them in."}
+          </p>
         ) : null}
         {versions.length > 1 ? (
           <nav aria-label="Versions" className="flex flex-wrap items-center gap-2 text-sm">
