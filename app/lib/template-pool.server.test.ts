@@ -17,6 +17,8 @@ let dir = "";
 let workerFile = "";
 /** A stand-in worker that announces itself and then never answers: JavaScript that never checks a clock. */
 let stuckFile = "";
+/** A stand-in worker that never finishes loading. */
+let neverReadyFile = "";
 const pools: TemplatePool[] = [];
 const pool = (o: Partial<ConstructorParameters<typeof TemplatePool>[0]> = {}) => {
   const p = new TemplatePool({ workerFile, size: 1, ...o });
@@ -45,6 +47,8 @@ beforeAll(async () => {
     ],
   });
   stuckFile = path.join(dir, "stuck-worker.mjs");
+  neverReadyFile = path.join(dir, "never-ready-worker.mjs");
+  writeFileSync(neverReadyFile, "for (;;) {}\n");
   writeFileSync(stuckFile, `import { parentPort } from "node:worker_threads";\nparentPort.on("message", () => { for (;;) {} });\nparentPort.postMessage({ kind: "ready" });\n`);
 });
 
@@ -100,6 +104,15 @@ describe("the template render pool", () => {
     const again = await p.render("anything", config, meta, { limits: { maxMillis: 10 } });
     expect(!again.ok && again.errors[0].message).toBe("rendering took longer than the time limit of 10 ms");
     expect(p.kills).toBe(2);
+  });
+
+  it("gives a cold worker a loading allowance, then stops it too", async () => {
+    const p = pool({ workerFile: neverReadyFile, killMarginMs: 10, startupAllowanceMs: 200 });
+    const t0 = Date.now();
+    const r = await p.render("anything", config, meta, { limits: { maxMillis: 10 } });
+    expect(Date.now() - t0).toBeGreaterThanOrEqual(215);
+    expect(!r.ok && r.errors[0].message).toBe("rendering took longer than the time limit of 10 ms");
+    expect(p.kills).toBe(1);
   });
 
   it("stops a real template whose time goes to compiling (no clock there) and keeps serving", async () => {

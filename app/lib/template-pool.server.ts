@@ -22,6 +22,8 @@ export const KILL_MARGIN_MS = 250;
 export const QUEUE_LIMIT = 32;
 /** A worker's heap; a render's output is capped at 4 MiB, so this is ample. */
 const WORKER_HEAP_MB = 256;
+/** Extra time a worker that has not finished loading gets before its first job counts as overdue. */
+const STARTUP_ALLOWANCE_MS = 5000;
 
 /** HB_TEMPLATE_WORKERS (1–16), by default min(2, available parallelism). */
 export function poolSizeFrom(value: string | undefined, cores = availableParallelism()): number {
@@ -42,7 +44,7 @@ export class PoolBusyError extends Error {
 }
 
 export type RenderOptions = { partials?: Record<string, string>; limits?: Partial<Limits>; cache?: boolean };
-export type PoolOptions = { workerFile: string; size?: number; queueLimit?: number; killMarginMs?: number };
+export type PoolOptions = { workerFile: string; size?: number; queueLimit?: number; killMarginMs?: number; startupAllowanceMs?: number };
 
 function stopped(message: string): RenderOutcome {
   const e: TemplateError = { stage: "render", severity: "error", message, line: 1, column: 1, from: 0, to: 0 };
@@ -62,6 +64,7 @@ export class TemplatePool {
   readonly size: number;
   readonly queueLimit: number;
   readonly killMarginMs: number;
+  readonly startupAllowanceMs: number;
   private readonly file: string;
   private readonly slots: Slot[] = [];
   private readonly queue: Job[] = [];
@@ -75,6 +78,7 @@ export class TemplatePool {
     this.size = o.size ?? POOL_SIZE;
     this.queueLimit = o.queueLimit ?? QUEUE_LIMIT;
     this.killMarginMs = o.killMarginMs ?? KILL_MARGIN_MS;
+    this.startupAllowanceMs = o.startupAllowanceMs ?? STARTUP_ALLOWANCE_MS;
     for (let i = 0; i < this.size; i++) this.slots.push({ worker: null, ready: false, job: null });
   }
 
@@ -133,13 +137,21 @@ export class TemplatePool {
     const running: Running = { ...job, id: ++this.seq, timer: null };
     slot.job = running;
     slot.worker!.ref();
-    if (slot.ready) this.startClock(slot, running);
-    const { request } = job;
-    slot.worker!.postMessage({ id: running.id, ...request } satisfies RenderRequest);
+    // A cold worker's clock starts when it says it is ready; until then it gets a loading allowance.
+    this.startClock(slot, running, slot.ready ? 0 : this.startupAllowanceMs);
+    try {
+      slot.worker!.postMessage({ id: running.id, ...job.request } satisfies RenderRequest);
+    } catch (e) {
+      // Not cloneable (configs are plain JSON, so this is a bug): answer it, free the slot.
+      this.finish(slot);
+      job.reject(e instanceof Error ? e : new Error(String(e)));
+      this.next(slot);
+    }
   }
 
-  private startClock(slot: Slot, job: Running) {
-    job.timer = setTimeout(() => this.overdue(slot, job), job.maxMillis + this.killMarginMs);
+  private startClock(slot: Slot, job: Running, extraMs = 0) {
+    if (job.timer) clearTimeout(job.timer);
+    job.timer = setTimeout(() => this.overdue(slot, job), job.maxMillis + this.killMarginMs + extraMs);
   }
 
   private finish(slot: Slot): Running | null {
@@ -159,7 +171,7 @@ export class TemplatePool {
   private answered(slot: Slot, m: WorkerMessage) {
     if (m.kind === "ready") {
       slot.ready = true;
-      if (slot.job && !slot.job.timer) this.startClock(slot, slot.job);
+      if (slot.job) this.startClock(slot, slot.job);
       return;
     }
     if (slot.job?.id !== m.id) return;
