@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 import { C11_KEYWORDS, toCComment, toCIdentifier, toCString } from "./cfilters";
 import { hasCC, out, run } from "./test-helpers";
 
-const SAMPLES = ["plain", 'quote " and \\ backslash', "tab\tnew\nline\r", "what??/ trigraph??=", "??", "é ü 火 🔥", "\u0001\u007f bell", "*/ end /* start", "x\\", "0\u00001"];
+const SAMPLES = ["plain", 'quote " and \\ backslash', "tab\tnew\nline\r", "what??/ trigraph??=", "??", "???/ and ????= in a row", "?\\??/", "é ü 火 🔥", "\u0001\u007f bell", "*/ end /* start", "x\\", "0\u00001"];
 
 describe("C identifiers (C11 §6.4.1 keywords, §6.4.2 identifiers)", () => {
   it("produces valid identifiers that are never keywords", () => {
@@ -61,6 +61,9 @@ describe("C string literals (C11 §6.4.5) and comments", () => {
     expect(toCComment("ends with \\")).toBe("ends with \\.");
     expect(toCComment("two\nlines")).toBe("two lines");
     expect(toCComment("x??/")).toBe("x? ?/");
+    // A run of three left a pair behind before ("? ??/" is still a trigraph).
+    expect(toCComment("x???/")).toBe("x? ? ?/");
+    expect(toCString("x???/")).toBe('"x?\\?\\?/"');
   });
 });
 

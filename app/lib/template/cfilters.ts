@@ -45,7 +45,8 @@ export function toCString(input: string): string {
     else if (b >= 0x20 && b < 0x7f) piece = String.fromCharCode(b);
     // Octal escapes take at most three digits, so the next character can never extend them.
     else piece = "\\" + b.toString(8).padStart(3, "0");
-    prevQ = b === 0x3f && piece === "?";
+    // Any '?' after a '?' is escaped, so no two stay side by side: "???/" → "?\?\?/".
+    prevQ = b === 0x3f;
     out += piece;
   }
   return out + '"';
@@ -54,7 +55,8 @@ export function toCString(input: string): string {
 /** Text safe inside both /* *\/ and // comments. */
 export function toCComment(input: string): string {
   let s = input.replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, " ");
-  s = s.replace(/\*\//g, "* /").replace(/\/\*/g, "/ *").replace(/\?\?/g, "? ?");
+  // Every '?' followed by another gets a space: a run of three ("???/") must not leave a pair.
+  s = s.replace(/\*\//g, "* /").replace(/\/\*/g, "/ *").replace(/\?(?=\?)/g, "? ");
   s = s.replace(/\s+$/, "");
   // A backslash at the end of a line would splice the next line into a // comment.
   if (s.endsWith("\\")) s += ".";
