@@ -4,7 +4,7 @@
 // `?compare=2..3` shows the line changes between two versions; people with edit:template can
 // delete a workshop template that nothing depends on (decision 006).
 import type { Diagnostic as CmDiagnostic } from "@codemirror/lint";
-import { useEffect, useMemo, useState } from "react";
+import { useEffect, useMemo, useState, useSyncExternalStore } from "react";
 import { data, Form, Link, redirect, useFetcher, useSubmit } from "react-router";
 import { CodeFrame } from "~/components/templates/CodeFrame";
 import { CodeView } from "~/components/templates/CodeView";
@@ -163,6 +163,20 @@ function useDebounced<T>(value: T, ms: number): T {
   return v;
 }
 
+const noSubscription = () => () => {};
+/**
+ * False on the server and while hydrating, true after: the draft is checked and previewed in the
+ * browser only, so the server never runs an untrusted template inline while drawing this page
+ * (server renders go through the worker pool, decision 007).
+ */
+function useInBrowser(): boolean {
+  return useSyncExternalStore(
+    noSubscription,
+    () => true,
+    () => false,
+  );
+}
+
 export default function TemplateEditorPage({ loaderData }: Route.ComponentProps) {
   const { template, versions, partials: stored, builds, build, canEdit, compare, dependents, newerPartials } = loaderData;
   const [source, setSource] = useState(template.source);
@@ -171,14 +185,15 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
   const settled = useDebounced(source, 120);
   // As on save: other templates that use this one see the draft, so a cycle through them shows.
   const partials = useMemo(() => (template.kind === "workshop" ? { ...stored, [template.name]: settled } : stored), [stored, template.kind, template.name, settled]);
+  const inBrowser = useInBrowser();
   const outcome = useMemo(() => {
-    if (!build) return null;
+    if (!build || !inBrowser) return null;
     // Drafts are compiled once and dropped: caching them would only fill the caches.
     return compileAndRender(settled, build.config, metaForBuild(build, { name: template.name, version: template.latest }), { partials, cache: false });
-  }, [settled, build, partials, template.name, template.latest]);
+  }, [settled, build, partials, template.name, template.latest, inBrowser]);
   // No build to preview with (a workshop without builds): still check the draft, so its
   // problems show; there is just nothing to render.
-  const checked = useMemo(() => (build ? null : compileTemplate(settled, { partials: partialsFrom(partials), cache: false })), [settled, build, partials]);
+  const checked = useMemo(() => (build || !inBrowser ? null : compileTemplate(settled, { partials: partialsFrom(partials), cache: false })), [settled, build, partials, inBrowser]);
   const problems = outcome ? (outcome.ok ? outcome.warnings : [...outcome.errors, ...outcome.warnings]) : checked ? (checked.ok ? checked.warnings : checked.errors) : [];
   const diagnostics = useMemo(() => toCm(problems), [outcome, checked]); // eslint-disable-line react-hooks/exhaustive-deps
   const save = useFetcher<SaveAnswer>();
@@ -299,7 +314,9 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           </h2>
           <CodeView value={source} language="template" readOnly={!canEdit} onChange={setSource} diagnostics={diagnostics} label="Template source" testId="template-editor" />
           <div className="mt-2" aria-live="polite">
-            {problems.length === 0 ? (
+            {!inBrowser ? (
+              <p className="text-sm text-iron-400">Checking the template…</p>
+            ) : problems.length === 0 ? (
               <p className="text-sm text-signal-ok" data-testid="problems-none">
                 No problems.
               </p>
@@ -324,6 +341,8 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           </h2>
           {!build ? (
             <p className="text-iron-400">Your workshop has no builds to preview with.</p>
+          ) : !inBrowser ? (
+            <p className="text-iron-400">Rendering the preview…</p>
           ) : outcome?.ok ? (
             <pre className="h-[32rem] overflow-auto rounded-md border border-soot-600 bg-soot-900 p-3 font-mono text-xs" data-testid="preview" tabIndex={0} aria-label="Rendered preview">
               {outcome.output}

@@ -142,3 +142,28 @@ test("the Render view stops a runaway workshop template at the API's limit and t
     await sql.query("DELETE FROM templates WHERE id = $1", [id]);
   }
 });
+
+test("the template editor page never runs the template on the server: it answers at once and checks in the browser", async ({ page, request, signIn, sql }) => {
+  const kestrel = await buildIdByName(sql, "Kestrel");
+  // Ten times the lets of RUNAWAY: past the editor's 2 s as well as the server's 500 ms.
+  const heavier = RUNAWAY.replace("@[ let x = x + 1 ]@".repeat(400), "@[ let x = x + 1 ]@".repeat(4000));
+  const id = await insertTemplate(sql, `runaway-editor-${uniq()}`, [heavier]);
+  try {
+    // The server's answer for the page: no preview, no checking, so no wait for the runaway.
+    await signInRequest(request, "demo-builder");
+    const t0 = performance.now();
+    const answered = await request.get(`/templates/${id}?build=${kestrel}`);
+    const ms = performance.now() - t0;
+    expect(answered.status()).toBe(200);
+    const html = await answered.text();
+    expect(html).toContain("Rendering the preview…");
+    expect(ms).toBeLessThan(1000);
+    // In the browser the draft is checked and previewed (with the editor's own 2 s clock).
+    await signIn("demo-builder");
+    await page.goto(`/templates/${id}?build=${kestrel}`);
+    await expect(page.getByTestId("problems")).toContainText("rendering took longer than the time limit", { timeout: 15_000 });
+    await expect(page.getByTestId("preview-failed")).toBeVisible();
+  } finally {
+    await sql.query("DELETE FROM templates WHERE id = $1", [id]);
+  }
+});
