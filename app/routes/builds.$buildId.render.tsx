@@ -3,6 +3,7 @@
 // (possibly hand-edited) back into the model to check it and make it the build's config.
 import { useState } from "react";
 import { data, Form, Link, useFetcher, useSubmit } from "react-router";
+import { CodeFrame } from "~/components/templates/CodeFrame";
 import { CodeView } from "~/components/templates/CodeView";
 import { requireViewer } from "~/lib/auth.server";
 import { loadBuildFor } from "~/lib/build-access.server";
@@ -48,7 +49,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       ...BUILTIN_NAMES.map((n) => ({ ref: n, label: `${n} (built-in)` })),
       ...workshop.map((w) => ({ ref: w.id, label: `${w.name} (v${w.id === pinned.id ? pinned.version : w.latest})` })),
     ],
-    result: r.ok ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: apiErrors(r, API_LIMITS) },
+    // A failed render quotes the template's lines under its errors (the page does not show it).
+    result: r.ok ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: apiErrors(r, API_LIMITS), source: t.source },
     canEdit: can(v.role, "edit:build"),
   };
 }
@@ -225,6 +227,7 @@ export default function RenderPage({ loaderData }: Route.ComponentProps) {
                     {e.line}:{e.column}
                   </span>{" "}
                   ({e.stage}) {e.message}
+                  {e.line >= 1 ? <CodeFrame source={result.source} error={e} testId="render-error-frame" /> : null}
                 </li>
               ))}
             </ul>

@@ -109,3 +109,25 @@ test("a workshop without builds still sees its template's problems, with code fr
     await sql.query("DELETE FROM users WHERE id = $1", [user]);
   }
 });
+
+test("the Render view quotes the failing template line under its error", async ({ page, signIn, sql }) => {
+  const name = `broken-render-${uniq()}`;
+  // Compiles (the value is only known at render) and fails when rendered.
+  const source = "first line\n@( config.rig.board.dataPins[0] / 0 )@\n";
+  const id = await insertTemplate(sql, name, [source]);
+  try {
+    const kestrel = (await sql.query("SELECT id FROM builds WHERE name = 'Kestrel' LIMIT 1")).rows[0].id;
+    await signIn("demo-builder");
+    await page.goto(`/builds/${kestrel}/render?template=${id}`);
+    const alert = page.getByRole("alert");
+    await expect(alert).toContainText("The template did not render this build:");
+    await expect(alert).toContainText("2:4 (render)");
+    await expect(alert).toContainText("division by zero");
+    const frame = await page.getByTestId("render-error-frame").first().evaluate((el) => el.textContent);
+    expect(frame).toContain("first line");
+    expect(frame).toContain("@( config.rig.board.dataPins[0] / 0 )@");
+    expect(frame).toContain("^");
+  } finally {
+    await sql.query("DELETE FROM templates WHERE id = $1", [id]);
+  }
+});
