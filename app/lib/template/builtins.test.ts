@@ -66,3 +66,22 @@ describe("built-in templates", () => {
     expect(configSchema.parse(json)).toEqual(demoConfig());
   });
 });
+
+describe("built-in versions", () => {
+  // Every build without a pin renders with generic-header, and its header says which version
+  // made it. The built-ins are all version 1; a change to one of these files would change the
+  // bytes of every such build while the header still said v1. So their contents are fixed here:
+  // changing a file means giving built-ins a new version (BUILTIN_VERSION) and new digests.
+  const DIGESTS: Record<keyof typeof BUILTIN_TEMPLATES, string> = {
+    "generic-header": "c9c6a8bf4976325a68beaf293049fdf04e6d62f2bb7f32637210c9a643e98a53",
+    "readable-copy": "07ad7c08b2598d6ded60ee0b1774bb03f07319fa49d3bcccc8dceec62e48fbd8",
+    "config-json": "cfc1dfadc85fda04111cd648cf71339d1038de80e09cb976946fc97c2b6e98e3",
+  };
+  it("are the files version 1 was released with", async () => {
+    const { createHash } = await import("node:crypto");
+    for (const [name, source] of Object.entries(BUILTIN_TEMPLATES)) {
+      const digest = createHash("sha256").update(source, "utf8").digest("hex");
+      expect(digest, `templates/${name}.hbt changed: give the built-ins a new version before releasing it`).toBe(DIGESTS[name as keyof typeof BUILTIN_TEMPLATES]);
+    }
+  });
+});
