@@ -20,7 +20,8 @@ import { getBuild, listBuilds } from "~/lib/repo/builds.server";
 import { deleteTemplate, describeDependents, getTemplate, getTemplateVersion, latestSources, listVersions, saveTemplateVersion, templateDependents, type TemplateDependents, sourcesForVersion, usesOf } from "~/lib/repo/templates.server";
 import { BUILTIN_TEMPLATES, compileTemplate, type TemplateError } from "~/lib/template";
 import { diffVersions, parseCompare } from "~/lib/template-diff";
-import { BUILTIN_VERSION, compileAndRender, isBuiltinName, metaForBuild, partialsFrom } from "~/lib/template-render";
+import { useDraftPreview } from "~/lib/template-preview";
+import { BUILTIN_VERSION, isBuiltinName, metaForBuild, partialsFrom } from "~/lib/template-render";
 import type { Route } from "./+types/templates.$templateId";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.template.name ?? "Template"} · Templates · Hiltbench` }];
@@ -186,16 +187,13 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
   // As on save: other templates that use this one see the draft, so a cycle through them shows.
   const partials = useMemo(() => (template.kind === "workshop" ? { ...stored, [template.name]: settled } : stored), [stored, template.kind, template.name, settled]);
   const inBrowser = useInBrowser();
-  const outcome = useMemo(() => {
-    if (!build || !inBrowser) return null;
-    // Drafts are compiled once and dropped: caching them would only fill the caches.
-    return compileAndRender(settled, build.config, metaForBuild(build, { name: template.name, version: template.latest }), { partials, cache: false });
-  }, [settled, build, partials, template.name, template.latest, inBrowser]);
-  // No build to preview with (a workshop without builds): still check the draft, so its
-  // problems show; there is just nothing to render.
-  const checked = useMemo(() => (build || !inBrowser ? null : compileTemplate(settled, { partials: partialsFrom(partials), cache: false })), [settled, build, partials, inBrowser]);
-  const problems = outcome ? (outcome.ok ? outcome.warnings : [...outcome.errors, ...outcome.warnings]) : checked ? (checked.ok ? checked.warnings : checked.errors) : [];
-  const diagnostics = useMemo(() => toCm(problems), [outcome, checked]); // eslint-disable-line react-hooks/exhaustive-deps
+  // Checked and rendered in a Web Worker: a runaway draft is stopped there, the tab stays live.
+  // With no build to preview with, the draft is still checked so its problems show.
+  const meta = useMemo(() => (build ? metaForBuild(build, { name: template.name, version: template.latest }) : null), [build, template.name, template.latest]);
+  const draft = useDraftPreview(inBrowser, settled, build ? build.config : null, meta, partials);
+  const outcome = draft?.render ?? null;
+  const problems = draft?.problems ?? [];
+  const diagnostics = useMemo(() => toCm(problems), [draft]); // eslint-disable-line react-hooks/exhaustive-deps
   const save = useFetcher<SaveAnswer>();
   const submit = useSubmit();
   const dirty = source !== template.source;
@@ -314,7 +312,7 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           </h2>
           <CodeView value={source} language="template" readOnly={!canEdit} onChange={setSource} diagnostics={diagnostics} label="Template source" testId="template-editor" />
           <div className="mt-2" aria-live="polite">
-            {!inBrowser ? (
+            {!draft ? (
               <p className="text-sm text-iron-400">Checking the template…</p>
             ) : problems.length === 0 ? (
               <p className="text-sm text-signal-ok" data-testid="problems-none">
@@ -341,7 +339,7 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           </h2>
           {!build ? (
             <p className="text-iron-400">Your workshop has no builds to preview with.</p>
-          ) : !inBrowser ? (
+          ) : !draft ? (
             <p className="text-iron-400">Rendering the preview…</p>
           ) : outcome?.ok ? (
             <pre className="h-[32rem] overflow-auto rounded-md border border-soot-600 bg-soot-900 p-3 font-mono text-xs" data-testid="preview" tabIndex={0} aria-label="Rendered preview">
