@@ -181,6 +181,8 @@ function useInBrowser(): boolean {
 export default function TemplateEditorPage({ loaderData }: Route.ComponentProps) {
   const { template, versions, partials: stored, builds, build, canEdit, compare, dependents, newerPartials } = loaderData;
   const [source, setSource] = useState(template.source);
+  // Set by clicking a problem's line:column: the editor puts its cursor there.
+  const [jumpTo, setJumpTo] = useState<{ at: number; seq: number } | null>(null);
   // A different template or version loaded: start from its source.
   useEffect(() => setSource(template.source), [template.id, template.version, template.source]);
   const settled = useDebounced(source, 120);
@@ -310,7 +312,7 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
           <h2 id="source-h" className="mb-2 text-base">
             Source
           </h2>
-          <CodeView value={source} language="template" readOnly={!canEdit} onChange={setSource} diagnostics={diagnostics} label="Template source" testId="template-editor" />
+          <CodeView value={source} language="template" readOnly={!canEdit} onChange={setSource} diagnostics={diagnostics} label="Template source" testId="template-editor" jumpTo={jumpTo} />
           <div className="mt-2" aria-live="polite">
             {!draft ? (
               <p className="text-sm text-iron-400">Checking the template…</p>
@@ -322,9 +324,14 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
               <ul aria-label="Problems" className="space-y-1 text-sm" data-testid="problems">
                 {problems.map((p, i) => (
                   <li key={i} className={p.severity === "error" ? "text-signal-error" : "text-signal-warning"} data-testid="problem">
-                    <span className="font-mono">
+                    <button
+                      type="button"
+                      className="font-mono underline decoration-dotted underline-offset-2"
+                      title="Put the cursor there"
+                      onClick={() => setJumpTo((j) => ({ at: p.from, seq: (j?.seq ?? 0) + 1 }))}
+                    >
                       {p.line}:{p.column}
-                    </span>{" "}
+                    </button>{" "}
                     {p.severity} ({p.stage}): {p.message}
                     <CodeFrame source={settled} error={p} />
                   </li>

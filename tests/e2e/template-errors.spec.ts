@@ -53,6 +53,17 @@ test("a diagnostic quotes its line with a caret under the column, and a refused 
     expect(await frameText(page, 1)).toBe(["  3 | End", "> 4 | Client: @( meta.clientNme )@", `    | ${" ".repeat(16)}^^^^^^^^^`].join("\n"));
     expect(await caretOffset(page, "problems", 1, "clientNme")).toBeLessThan(1);
 
+    // Clicking a problem's line:column puts the editor's cursor on that line; typing lands there.
+    await problem.nth(0).getByRole("button", { name: "1:15" }).click();
+    await expect(page.locator("[data-testid=template-editor] .cm-activeLine")).toHaveText("@( config.rig.chanels )@ channels");
+    await problem.nth(1).getByRole("button", { name: "4:17" }).click();
+    await expect(page.locator("[data-testid=template-editor] .cm-activeLine")).toHaveText("Client: @( meta.clientNme )@");
+    await page.keyboard.press("End");
+    await page.keyboard.insertText(" // here");
+    await expect(page.locator("[data-testid=template-editor] .cm-activeLine")).toHaveText("Client: @( meta.clientNme )@ // here");
+    await page.keyboard.press("Backspace");
+    for (let i = 0; i < " // her".length; i++) await page.keyboard.press("Backspace");
+
     // Saving it is refused; the answer lists both errors with their frames, and nothing is stored.
     await page.getByRole("button", { name: "Save as version 2" }).click();
     await expect(page.getByTestId("save-status")).toHaveText("The template has 2 errors; nothing was saved.");

@@ -28,8 +28,10 @@ export function CodeView(props: {
   height?: string;
   label: string;
   testId?: string;
+  /** Moves the cursor to offset `at` and focuses the editor, each time `seq` changes. */
+  jumpTo?: { at: number; seq: number } | null;
 }) {
-  const { value, language, readOnly = false, onChange, diagnostics, height = "32rem", label, testId } = props;
+  const { value, language, readOnly = false, onChange, diagnostics, height = "32rem", label, testId, jumpTo } = props;
   const view = useRef<EditorView | null>(null);
   const extensions = useMemo<Extension[]>(() => {
     const ext: Extension[] = [theme, EditorView.contentAttributes.of({ "aria-label": label })];
@@ -45,6 +47,14 @@ export function CodeView(props: {
     const v = view.current;
     if (v && diagnostics) v.dispatch(setDiagnostics(v.state, diagnostics.filter((d) => d.to <= v.state.doc.length)));
   }, [diagnostics]);
+
+  useEffect(() => {
+    const v = view.current;
+    if (!v || !jumpTo) return;
+    const at = Math.min(Math.max(0, jumpTo.at), v.state.doc.length);
+    v.dispatch({ selection: { anchor: at }, scrollIntoView: true });
+    v.focus();
+  }, [jumpTo?.seq]); // eslint-disable-line react-hooks/exhaustive-deps
 
   return (
     <div className="overflow-hidden rounded-md border border-soot-600" data-testid={testId}>
