@@ -4,7 +4,7 @@
 // overruns the render's time limit. No React here, so the worker bundle stays small.
 import type { Config } from "./config/schema";
 import { compileTemplate, DEFAULT_LIMITS, type RenderMeta, type TemplateError } from "./template";
-import { compileAndRender, partialsFrom, type RenderOutcome } from "./template-render";
+import { compileAndRender, partialsFrom, stoppedRender, type RenderOutcome } from "./template-render";
 
 export type DraftJob = { id: number; source: string; config: Config | null; meta: RenderMeta | null; partials: Record<string, string> };
 export type DraftResult = { id: number; render: RenderOutcome | null; problems: TemplateError[] };
@@ -23,9 +23,8 @@ export function runDraft(job: DraftJob): DraftResult {
 }
 
 function overran(id: number, hasConfig: boolean, limitMs: number): DraftResult {
-  const message = `rendering took longer than the time limit of ${limitMs} ms`;
-  const error: TemplateError = { stage: "render", severity: "error", message, line: 1, column: 1, from: 0, to: 0 };
-  return { id, render: hasConfig ? { ok: false, errors: [error], warnings: [] } : null, problems: [error] };
+  const stopped = stoppedRender(`rendering took longer than the time limit of ${limitMs} ms`);
+  return { id, render: hasConfig ? stopped : null, problems: stopped.errors };
 }
 
 /** What the runner needs of a Worker (a fake in tests). */

@@ -10,8 +10,8 @@ import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import { data } from "react-router";
 import type { Config } from "./config/schema";
-import { DEFAULT_LIMITS, type Limits, type RenderMeta, type TemplateError } from "./template";
-import { compileAndRender, type RenderOutcome } from "./template-render";
+import { DEFAULT_LIMITS, type Limits, type RenderMeta } from "./template";
+import { compileAndRender, stoppedRender, type RenderOutcome } from "./template-render";
 import type { RenderRequest, WorkerMessage } from "./template-worker.server";
 
 /** The worker's file name in the server build, next to build/server/index.js (vite.config.ts). */
@@ -45,11 +45,6 @@ export class PoolBusyError extends Error {
 
 export type RenderOptions = { partials?: Record<string, string>; limits?: Partial<Limits>; cache?: boolean };
 export type PoolOptions = { workerFile: string; size?: number; queueLimit?: number; killMarginMs?: number; startupAllowanceMs?: number };
-
-function stopped(message: string): RenderOutcome {
-  const e: TemplateError = { stage: "render", severity: "error", message, line: 1, column: 1, from: 0, to: 0 };
-  return { ok: false, errors: [e], warnings: [] };
-}
 
 type Job = {
   request: Omit<RenderRequest, "id">;
@@ -187,7 +182,7 @@ export class TemplatePool {
     this.finish(slot);
     this.kills++;
     this.replace(slot);
-    job.resolve(stopped(`rendering took longer than the time limit of ${job.maxMillis} ms`));
+    job.resolve(stoppedRender(`rendering took longer than the time limit of ${job.maxMillis} ms`));
     this.next(slot);
   }
 
@@ -200,7 +195,7 @@ export class TemplatePool {
     slot.ready = false;
     void old?.terminate().catch(() => {});
     if (job) {
-      if (e.code === "ERR_WORKER_OUT_OF_MEMORY") job.resolve(stopped(`rendering used more memory than the limit of ${WORKER_HEAP_MB} MB`));
+      if (e.code === "ERR_WORKER_OUT_OF_MEMORY") job.resolve(stoppedRender(`rendering used more memory than the limit of ${WORKER_HEAP_MB} MB`));
       else job.reject(e);
     }
     this.next(slot);

@@ -28,6 +28,14 @@ export function compileAndRender(source: string, config: Config, meta: RenderMet
 }
 
 /**
+ * A render stopped from outside the library (its worker terminated past the time limit, or out
+ * of memory): one render error at 1:1, since where the template was is not known.
+ */
+export function stoppedRender(message: string): Extract<RenderOutcome, { ok: false }> {
+  return { ok: false, errors: [{ stage: "render", severity: "error", message, line: 1, column: 1, from: 0, to: 0 }], warnings: [] };
+}
+
+/**
  * Render metadata for a build: savedAt is when its config was last saved (`config_saved_at`),
  * never the clock and never `updated_at` (which a rename or a status change also moves), so the
  * same config and template version always render the same bytes.

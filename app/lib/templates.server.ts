@@ -3,6 +3,7 @@
 import type { Viewer } from "./auth.server";
 import { db } from "./db.server";
 import { fail } from "./http.server";
+import type { TemplateUses } from "./db/types";
 import { BUILTIN_TEMPLATES, type Limits } from "./template";
 import { renderOffThread } from "./template-pool.server";
 import { BUILTIN_VERSION, isBuiltinName, metaForBuild, type RenderOutcome } from "./template-render";
@@ -37,19 +38,19 @@ export async function renderBuildWith(
   b: { name: string; client_name: string; config_saved_at: Date; config_version: number; config: unknown },
   t: ResolvedTemplate,
   limits?: Partial<Limits>,
-): Promise<RenderOutcome> {
-  const partials = await partialsFor(v, t);
-  return renderOffThread(t.source, b.config as never, metaForBuild(b, t), { partials, limits });
+): Promise<RenderOutcome & { uses: TemplateUses }> {
+  const { sources, uses } = await partialsFor(v, t);
+  return { ...(await renderOffThread(t.source, b.config as never, metaForBuild(b, t), { partials: sources, limits })), uses };
 }
 
 /**
  * The workshop templates `use "name"` resolves to: for a saved version, the versions it recorded
- * when it was saved (decision 005), so its bytes do not follow later edits of its partials;
- * for a built-in or posted source, the latest of each.
+ * when it was saved (decision 005, listed in `uses`), so its bytes do not follow later edits of
+ * its partials; for a built-in or posted source, the latest of each (nothing recorded).
  */
-export async function partialsFor(v: Viewer, t: ResolvedTemplate): Promise<Record<string, string>> {
-  if (t.kind === "workshop" && t.id) return (await sourcesForVersion(db(), v.workshop.id, t.id, t.version)).sources;
-  return latestSources(db(), v.workshop.id);
+export async function partialsFor(v: Viewer, t: ResolvedTemplate): Promise<{ sources: Record<string, string>; uses: TemplateUses }> {
+  if (t.kind === "workshop" && t.id) return sourcesForVersion(db(), v.workshop.id, t.id, t.version);
+  return { sources: await latestSources(db(), v.workshop.id), uses: Object.create(null) };
 }
 
 /** A render failure as the API's error list, with the limit named when a budget stopped it. */

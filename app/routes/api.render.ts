@@ -77,7 +77,7 @@ export function action({ request }: Route.ActionArgs) {
       config = checked.config;
       build = { name: "Posted config", client_name: "", config_saved_at: new Date(0) };
     }
-    const partials = await partialsFor(v, t);
+    const partials = (await partialsFor(v, t)).sources;
     const r = await renderOffThread(t.source, config as never, metaForBuild(build, t), { partials, limits: API_LIMITS });
     if (!r.ok) return json({ errors: apiErrors(r, API_LIMITS) }, { status: 422 });
     return new Response(r.output, { headers: { "Content-Type": "text/plain; charset=utf-8", "Cache-Control": "no-store", "X-Template": `${t.name}@${t.version}` } });

@@ -12,7 +12,7 @@ import { validateConfig, type Diagnostic } from "~/lib/config/validate";
 import { db } from "~/lib/db.server";
 import { fail } from "~/lib/http.server";
 import { can } from "~/lib/permissions";
-import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate, sourcesForVersion } from "~/lib/repo/templates.server";
+import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate } from "~/lib/repo/templates.server";
 import { readHeader, type ReadError } from "~/lib/template";
 import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
 import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/templates.server";
@@ -37,7 +37,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const r = await renderBuildWith(v, b, t, API_LIMITS);
   const workshop = await listTemplates(db(), v.workshop.id);
   // The workshop templates this version uses, at the versions it recorded when it was saved.
-  const uses = t.kind === "workshop" && t.id ? Object.entries((await sourcesForVersion(db(), v.workshop.id, t.id, t.version)).uses).map(([name, u]) => ({ name, version: u.version })) : [];
+  const uses = Object.entries(r.uses).map(([name, u]) => ({ name, version: u.version }));
   const pinnedLatest = pinned.id ? workshop.find((w) => w.id === pinned.id)?.latest ?? pinned.version : null;
   return {
     buildId: b.id,

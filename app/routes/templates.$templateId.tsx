@@ -17,7 +17,7 @@ import { db } from "~/lib/db.server";
 import { fail } from "~/lib/http.server";
 import { can } from "~/lib/permissions";
 import { getBuild, listBuilds } from "~/lib/repo/builds.server";
-import { deleteTemplate, describeDependents, getTemplate, getTemplateVersion, latestSources, listVersions, saveTemplateVersion, templateDependents, type TemplateDependents, sourcesForVersion, usesOf } from "~/lib/repo/templates.server";
+import { deleteTemplate, describeDependents, getTemplate, getTemplateVersion, latestSources, listVersions, saveTemplateVersion, templateDependents, type TemplateDependents, recordedUses, usesOf } from "~/lib/repo/templates.server";
 import { BUILTIN_TEMPLATES, compileTemplate, type TemplateError } from "~/lib/template";
 import { diffVersions, parseCompare } from "~/lib/template-diff";
 import { useDraftPreview } from "~/lib/template-preview";
@@ -63,7 +63,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   // with the versions it recorded): a save, even of the same source, takes the newer ones in.
   let newerPartials: { name: string; version: number; was: number | null }[] = [];
   if (template.kind === "workshop" && template.version === template.latest) {
-    const recorded = (await sourcesForVersion(db(), v.workshop.id, template.id, template.version)).uses;
+    const recorded = await recordedUses(db(), v.workshop.id, template.id, template.version);
     const now = await usesOf(db(), v.workshop.id, template.source);
     newerPartials = Object.entries(now)
       .filter(([name, u]) => recorded[name]?.id !== u.id || recorded[name]?.version !== u.version)

@@ -1,10 +1,9 @@
 // The Checks page as a builder uses it (diagnostics, power, cautions, links, import, export),
 // and the JSON API as a script uses it with a personal token. Every test that changes Kestrel's
 // config puts the original back, so later specs see the seeded build.
-import { createHash, randomBytes } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import type pg from "pg";
-import { test, expect, buildIdByName, signInRequest, BASE_URL } from "./fixtures";
+import { test, expect, buildIdByName, signInRequest, BASE_URL, tokenFor } from "./fixtures";
 
 async function storedConfig(sql: pg.Pool, id: string): Promise<{ config: Record<string, any>; version: number }> {
   const r = await sql.query("SELECT config, config_version FROM builds WHERE id = $1", [id]);
@@ -21,17 +20,6 @@ async function keepingConfig(sql: pg.Pool, id: string, body: (original: { config
   }
 }
 
-async function tokenFor(sql: pg.Pool, login: string): Promise<string> {
-  const token = `hbt_${randomBytes(32).toString("base64url")}`;
-  const user = await sql.query("SELECT id FROM users WHERE github_login = $1", [login]);
-  await sql.query("INSERT INTO api_tokens (user_id, name, token_hash, prefix) VALUES ($1, $2, $3, $4)", [
-    user.rows[0].id,
-    "checks e2e",
-    createHash("sha256").update(token).digest("hex"),
-    token.slice(0, 10),
-  ]);
-  return token;
-}
 
 test("a builder reads Kestrel's checks, power and cautions, and follows a diagnostic to the rig field", async ({ page, signIn, sql }) => {
   const id = await buildIdByName(sql, "Kestrel");
@@ -149,7 +137,7 @@ test("the import refuses an oversized file with a message and a reviewer cannot 
 
 test("the API validates, reads and replaces a config with a token, refusing bad input without storing", async ({ playwright, sql }) => {
   const id = await buildIdByName(sql, "Kestrel");
-  const token = await tokenFor(sql, "demo-builder");
+  const token = await tokenFor(sql, "demo-builder", "checks e2e");
   const api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Authorization: `Bearer ${token}` } });
   await keepingConfig(sql, id, async (before) => {
     // validate: a good config gives its warnings and engine power figures
@@ -229,7 +217,7 @@ test("the API validates, reads and replaces a config with a token, refusing bad 
   });
 
   // a reviewer's token reads but cannot replace
-  const reviewerApi = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Authorization: `Bearer ${await tokenFor(sql, "demo-reviewer")}` } });
+  const reviewerApi = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Authorization: `Bearer ${await tokenFor(sql, "demo-reviewer", "checks e2e")}` } });
   const current = await storedConfig(sql, id);
   expect((await reviewerApi.get(`/api/builds/${id}/config`)).status()).toBe(200);
   const forbidden = await reviewerApi.put(`/api/builds/${id}/config`, { data: { config: current.config, version: current.version } });

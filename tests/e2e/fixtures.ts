@@ -3,6 +3,7 @@
 // the UI cannot reach (another workshop), and a guard that fails a test on unexpected errors
 // in the page.
 import { test as base, expect, type APIRequestContext, type Page } from "@playwright/test";
+import { createHash, randomBytes } from "node:crypto";
 import pg from "pg";
 
 export const BASE_URL = process.env.BASE_URL ?? "http://127.0.0.1:5178";
@@ -63,6 +64,19 @@ export const test = base.extend<Fixtures>({
 });
 
 export { expect };
+
+/** A personal API token for `login`, stored as the app stores them (hash and prefix), as a script would hold it. */
+export async function tokenFor(sql: pg.Pool, login: string, name = "e2e"): Promise<string> {
+  const token = `hbt_${randomBytes(32).toString("base64url")}`;
+  const user = await sql.query("SELECT id FROM users WHERE github_login = $1", [login]);
+  await sql.query("INSERT INTO api_tokens (user_id, name, token_hash, prefix) VALUES ($1, $2, $3, $4)", [
+    user.rows[0].id,
+    name,
+    createHash("sha256").update(token).digest("hex"),
+    token.slice(0, 10),
+  ]);
+  return token;
+}
 
 export async function buildIdByName(sql: pg.Pool, name: string): Promise<string> {
   const r = await sql.query("SELECT id FROM builds WHERE name = $1 ORDER BY created_at LIMIT 1", [name]);

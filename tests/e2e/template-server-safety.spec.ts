@@ -1,23 +1,11 @@
 // Server renders run in worker threads (decision 007): while a runaway template is being
 // stopped, the server keeps answering other requests. Timed against the built app that
 // `npm test` starts; the render API is called with a personal token as a script would.
-import { createHash, randomBytes } from "node:crypto";
 import type { APIRequestContext, APIResponse } from "@playwright/test";
 import type pg from "pg";
-import { test, expect, buildIdByName, BASE_URL, signInRequest } from "./fixtures";
+import { test, expect, buildIdByName, BASE_URL, signInRequest, tokenFor } from "./fixtures";
 import { insertTemplate, uniq } from "./template-helpers";
 
-async function tokenFor(sql: pg.Pool, login: string): Promise<string> {
-  const token = `hbt_${randomBytes(32).toString("base64url")}`;
-  const user = await sql.query("SELECT id FROM users WHERE github_login = $1", [login]);
-  await sql.query("INSERT INTO api_tokens (user_id, name, token_hash, prefix) VALUES ($1, $2, $3, $4)", [
-    user.rows[0].id,
-    "server safety e2e",
-    createHash("sha256").update(token).digest("hex"),
-    token.slice(0, 10),
-  ]);
-  return token;
-}
 
 /**
  * Eight nested loops over the presets with a few hundred statements per pass: far more work
@@ -45,7 +33,7 @@ test.describe("a runaway template does not hold up the server", () => {
   let api: APIRequestContext;
   test.beforeAll(async ({ playwright }) => {
     const pool = new (await import("pg")).default.Pool({ connectionString: process.env.DATABASE_URL, max: 1 });
-    const token = await tokenFor(pool, "demo-builder");
+    const token = await tokenFor(pool, "demo-builder", "server safety e2e");
     await pool.end();
     api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Authorization: `Bearer ${token}` } });
   });

@@ -2,24 +2,11 @@
 // preview, save versions, pin one on a build's Render view, download, move to a newer version),
 // a reviewer's read-only view, reading a hand-edited header back, and the render API as a script
 // uses it with a personal token. Everything that changes Kestrel is put back afterwards.
-import { createHash, randomBytes } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import http from "node:http";
-import type pg from "pg";
-import { test, expect, buildIdByName, BASE_URL } from "./fixtures";
+import { test, expect, buildIdByName, BASE_URL, tokenFor } from "./fixtures";
 import { insertTemplate, keepingBuild, typeAtStart, uniq } from "./template-helpers";
 
-async function tokenFor(sql: pg.Pool, login: string): Promise<string> {
-  const token = `hbt_${randomBytes(32).toString("base64url")}`;
-  const user = await sql.query("SELECT id FROM users WHERE github_login = $1", [login]);
-  await sql.query("INSERT INTO api_tokens (user_id, name, token_hash, prefix) VALUES ($1, $2, $3, $4)", [
-    user.rows[0].id,
-    "templates e2e",
-    createHash("sha256").update(token).digest("hex"),
-    token.slice(0, 10),
-  ]);
-  return token;
-}
 
 /**
  * POST a large body and take the answer as soon as it arrives: the server refuses an oversized
@@ -205,7 +192,7 @@ test("a hand-edited header reads back on the Render view, with errors at their l
 });
 
 test("the render API answers text, 422 with positions for a broken or runaway template, and 413 for a huge one", async ({ playwright, sql }) => {
-  const token = await tokenFor(sql, "demo-builder");
+  const token = await tokenFor(sql, "demo-builder", "templates e2e");
   const kestrel = await buildIdByName(sql, "Kestrel");
   const api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Authorization: `Bearer ${token}` } });
 

@@ -70,10 +70,10 @@ export interface TemplatesTable {
   created_at: Timestamp;
 }
 
-/** Immutable: a new save is a new row. */
 /** name → the template and version a saved version resolves `use "name"` to (transitively). */
 export type TemplateUses = Record<string, { id: string; version: number }>;
 
+/** Immutable: a new save is a new row. */
 export interface TemplateVersionsTable {
   template_id: string;
   version: number;

@@ -79,7 +79,9 @@ export async function latestSources(db: Db, workshopId: string): Promise<Record<
  */
 export async function usesOf(db: Db, workshopId: string, source: string): Promise<TemplateUses> {
   const uses: TemplateUses = Object.create(null);
-  let pending = [...partialsUsed(source)];
+  // Every name looked up once, found or not (a built-in or unknown name is simply not recorded).
+  const asked = new Set(partialsUsed(source));
+  let pending = [...asked];
   while (pending.length) {
     const rows = await db
       .selectFrom("template_versions as v")
@@ -89,25 +91,25 @@ export async function usesOf(db: Db, workshopId: string, source: string): Promis
       .where("t.name", "in", pending)
       .where("v.version", "=", (eb) => eb.selectFrom("template_versions as w").select((e) => e.fn.max("w.version").as("m")).whereRef("w.template_id", "=", "t.id"))
       .execute();
-    for (const name of pending) if (!Object.hasOwn(uses, name)) uses[name] = { id: "", version: 0 };
-    const next = new Set<string>();
+    pending = [];
     for (const r of rows) {
       uses[r.name] = { id: r.id, version: r.version };
-      for (const n of partialsUsed(r.source)) if (!Object.hasOwn(uses, n)) next.add(n);
+      for (const n of partialsUsed(r.source))
+        if (!asked.has(n)) {
+          asked.add(n);
+          pending.push(n);
+        }
     }
-    pending = [...next];
   }
-  // Names that matched no workshop template were placeholders for the walk.
-  for (const name of Object.keys(uses)) if (!uses[name].id) delete uses[name];
   return uses;
 }
 
 /**
- * name → source of the partials a saved version renders with: the versions it recorded when it
- * was saved. A version saved before they were recorded records them now, once, so from its
- * first render on its output no longer follows later edits of its partials.
+ * The partials a saved version recorded when it was saved. A version saved before they were
+ * recorded records them now, once, so from its first render on its output no longer follows
+ * later edits of its partials. Empty for a version that is not the workshop's.
  */
-export async function sourcesForVersion(db: Db, workshopId: string, id: string, version: number): Promise<{ sources: Record<string, string>; uses: TemplateUses }> {
+export async function recordedUses(db: Db, workshopId: string, id: string, version: number): Promise<TemplateUses> {
   const row = await db
     .selectFrom("template_versions as v")
     .innerJoin("templates as t", "t.id", "v.template_id")
@@ -116,21 +118,25 @@ export async function sourcesForVersion(db: Db, workshopId: string, id: string, 
     .where("v.template_id", "=", id)
     .where("v.version", "=", version)
     .executeTakeFirst();
-  if (!row) return { sources: Object.create(null), uses: Object.create(null) };
-  let uses = row.uses;
-  if (!uses) {
-    await db
-      .updateTable("template_versions")
-      .set({ uses: JSON.stringify(await usesOf(db, workshopId, row.source)) })
-      .where("template_id", "=", id)
-      .where("version", "=", version)
-      .where("uses", "is", null)
-      .execute();
-    const again = await db.selectFrom("template_versions").select("uses").where("template_id", "=", id).where("version", "=", version).executeTakeFirstOrThrow();
-    uses = again.uses ?? Object.create(null);
-  }
+  if (!row) return Object.create(null);
+  if (row.uses) return row.uses;
+  await db
+    .updateTable("template_versions")
+    .set({ uses: JSON.stringify(await usesOf(db, workshopId, row.source)) })
+    .where("template_id", "=", id)
+    .where("version", "=", version)
+    .where("uses", "is", null)
+    .execute();
+  // Read back: a render racing this one may have recorded first, and its record is the one kept.
+  const again = await db.selectFrom("template_versions").select("uses").where("template_id", "=", id).where("version", "=", version).executeTakeFirstOrThrow();
+  return again.uses ?? Object.create(null);
+}
+
+/** name → source of the partials a saved version renders with: the versions it recorded. */
+export async function sourcesForVersion(db: Db, workshopId: string, id: string, version: number): Promise<{ sources: Record<string, string>; uses: TemplateUses }> {
+  const uses = await recordedUses(db, workshopId, id, version);
   const sources: Record<string, string> = Object.create(null);
-  const pairs = Object.entries(uses!);
+  const pairs = Object.entries(uses);
   if (pairs.length) {
     const rows = await db
       .selectFrom("template_versions as v")
@@ -146,7 +152,7 @@ export async function sourcesForVersion(db: Db, workshopId: string, id: string, 
       if (src !== undefined) sources[name] = src;
     }
   }
-  return { sources, uses: uses! };
+  return { sources, uses };
 }
 
 export type CreateResult = { kind: "created"; id: string } | { kind: "taken" };
