@@ -14,7 +14,7 @@ function templateWorker(): Plugin {
     apply: "build",
     applyToEnvironment: (environment) => environment.name === "ssr",
     buildStart() {
-      this.emitFile({ type: "chunk", id: fileURLToPath(new URL("./app/lib/template-worker.server.ts", import.meta.url)), fileName: "template-worker.js" });
+      this.emitFile({ type: "chunk", id: fileURLToPath(new URL("./app/lib/rendering/worker.server.ts", import.meta.url)), fileName: "template-worker.js" });
     },
   };
 }

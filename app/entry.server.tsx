@@ -6,7 +6,7 @@ import { ServerRouter } from "react-router";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
-import { securityHeaders } from "./lib/security.server";
+import { securityHeaders } from "./lib/web/security.server";
 
 export const streamTimeout = 5_000;
 

@@ -1,7 +1,8 @@
 // `tsx db/setup.ts [--seed]`: create the database named in DATABASE_URL if it is missing,
 // migrate it to the latest schema, and optionally seed the demo workshop.
 import pg from "pg";
-import { connect, migrateToLatest } from "../app/lib/db/connect";
+import { connect } from "../app/lib/db/connect";
+import { migrateToLatest } from "./migrate";
 import { seed } from "./seed";
 
 export async function ensureDatabase(url: string) {

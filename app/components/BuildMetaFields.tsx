@@ -1,4 +1,4 @@
-import { STATUS_LABELS } from "~/lib/build-forms";
+import { STATUS_LABELS } from "~/lib/forms/build-forms";
 import { BUILD_STATUSES } from "~/lib/db/types";
 
 export function BuildMetaFields({

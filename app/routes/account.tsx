@@ -1,8 +1,8 @@
 import { data, Form, useActionData } from "react-router";
 import { z } from "zod";
-import { requireViewer } from "~/lib/auth.server";
-import { db } from "~/lib/db.server";
-import { fail } from "~/lib/http.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { db } from "~/lib/db/db.server";
+import { fail } from "~/lib/web/http.server";
 import { createToken, listTokens, revokeToken } from "~/lib/repo/tokens.server";
 import type { Route } from "./+types/account";
 

@@ -1,10 +1,10 @@
 // GET /api/builds/:buildId/config answers the stored config and its version; PUT replaces it
 // after validation, only from the version it was read at. Nothing is stored on any failure.
-import { readJsonBody, requireField } from "~/lib/body.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { requireViewer } from "~/lib/auth.server";
-import { storeCheckedConfig } from "~/lib/config-store.server";
-import { apiAnswer, fail, json } from "~/lib/http.server";
+import { readJsonBody, requireField } from "~/lib/web/body.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { storeCheckedConfig } from "~/lib/checks/save.server";
+import { apiAnswer, fail, json } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.config";
 
 export function loader({ request, params }: Route.LoaderArgs) {

@@ -1,11 +1,11 @@
 // The time-by-pixel picture of one channel's look in one preset of a build's current config:
 // the demonstration sequence, one row per frame at 60 fps, base on the left. Used by the Looks
 // page and by scripts; the ETag follows the config version so browsers revalidate cheaply.
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
 import type { Config } from "~/lib/config/schema";
 import { lookTimePng } from "~/lib/effects/png.server";
-import { apiAnswer, fail } from "~/lib/http.server";
+import { apiAnswer, fail } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.looks-png";
 
 function listIds(items: readonly { id: string }[]): string {

@@ -1,10 +1,10 @@
 // GET /api/builds/:buildId/render?template=<id or built-in name>[&version=n][&download=1]: the
 // build's current config rendered as text (its pinned template when none is named).
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { apiAnswer, fail, json } from "~/lib/http.server";
-import { downloadName } from "~/lib/template-render";
-import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/templates.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { downloadName } from "~/lib/rendering/render";
+import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/rendering/service.server";
 import type { Route } from "./+types/api.builds.$buildId.render";
 
 export function loader({ request, params }: Route.LoaderArgs) {

@@ -1,6 +1,6 @@
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { apiAnswer, json } from "~/lib/http.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { apiAnswer, json } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId";
 
 export function loader({ request, params }: Route.LoaderArgs) {

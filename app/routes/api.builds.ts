@@ -1,8 +1,8 @@
-import { requireViewer } from "~/lib/auth.server";
-import { scopeFor } from "~/lib/build-access.server";
-import { parseBuildQuery } from "~/lib/build-forms";
-import { db } from "~/lib/db.server";
-import { apiAnswer, json } from "~/lib/http.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { scopeFor } from "~/lib/auth/build-access.server";
+import { parseBuildQuery } from "~/lib/forms/build-forms";
+import { db } from "~/lib/db/db.server";
+import { apiAnswer, json } from "~/lib/web/http.server";
 import { listBuilds } from "~/lib/repo/builds.server";
 import type { Route } from "./+types/api.builds";
 

@@ -1,5 +1,5 @@
-import { requireViewer } from "~/lib/auth.server";
-import { apiAnswer, json } from "~/lib/http.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { apiAnswer, json } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.me";
 
 export function loader({ request }: Route.LoaderArgs) {

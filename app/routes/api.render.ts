@@ -1,14 +1,14 @@
 // POST /api/render: a config (or a build's) through a template (a built-in, a workshop template
 // version, or posted source). Answers the output as text/plain, or 422 with the errors.
 import { z } from "zod";
-import { requireViewer } from "~/lib/auth.server";
-import { readJsonBody } from "~/lib/body.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { validateConfig } from "~/lib/config/validate";
-import { apiAnswer, fail, json } from "~/lib/http.server";
-import { renderOffThread } from "~/lib/template-pool.server";
-import { BUILTIN_VERSION, metaForBuild } from "~/lib/template-render";
-import { API_LIMITS, apiErrors, partialsFor, resolveTemplate, type ResolvedTemplate } from "~/lib/templates.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { readJsonBody } from "~/lib/web/body.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { validateConfig } from "~/lib/checks/validate";
+import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { renderOffThread } from "~/lib/rendering/pool.server";
+import { BUILTIN_VERSION, metaForBuild } from "~/lib/rendering/render";
+import { API_LIMITS, apiErrors, partialsFor, resolveTemplate, type ResolvedTemplate } from "~/lib/rendering/service.server";
 import type { Route } from "./+types/api.render";
 
 /** Templates are tens of kilobytes and configs a few hundred; a render request stays under 1 MB. */

@@ -1,10 +1,10 @@
 // POST /api/validate: the validator over a posted config, for scripts (bearer token) and the
 // app's own editors (session). A config with errors is still a 200: the diagnostics are the answer.
-import { readJsonBody, requireField } from "~/lib/body.server";
-import { powerModeFor } from "~/lib/config/power-mode";
-import { validateConfig } from "~/lib/config/validate";
-import { requireViewer } from "~/lib/auth.server";
-import { apiAnswer, fail, json } from "~/lib/http.server";
+import { readJsonBody, requireField } from "~/lib/web/body.server";
+import { powerModeFor } from "~/lib/checks/power-mode";
+import { validateConfig } from "~/lib/checks/validate";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { apiAnswer, fail, json } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.validate";
 
 export function loader({ request }: Route.LoaderArgs) {

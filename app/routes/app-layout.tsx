@@ -1,7 +1,7 @@
 import { Form, NavLink, Outlet } from "react-router";
-import { requireViewer } from "~/lib/auth.server";
-import { can } from "~/lib/permissions";
-import type { ClientViewer } from "~/lib/viewer";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { can } from "~/lib/auth/permissions";
+import type { ClientViewer } from "~/lib/auth/viewer";
 import type { Route } from "./+types/app-layout";
 
 export async function loader({ request }: Route.LoaderArgs) {

@@ -1,8 +1,8 @@
 // GitHub sends the browser back here with a code; remix-auth exchanges it, our verify step
 // finds or creates the person, and we keep our own session.
 import { redirect } from "react-router";
-import { auth } from "~/lib/auth.server";
-import { sessions } from "~/lib/session.server";
+import { auth } from "~/lib/auth/auth.server";
+import { sessions } from "~/lib/auth/session.server";
 import { nextCookie, safeNext } from "./auth.github";
 import type { Route } from "./+types/auth.github.callback";
 

@@ -1,7 +1,7 @@
 // Starts GitHub sign-in: remix-auth answers with a redirect to the authorization page (GitHub
 // or the local fake) and a cookie holding the OAuth state.
 import { createCookie, redirect } from "react-router";
-import { auth } from "~/lib/auth.server";
+import { auth } from "~/lib/auth/auth.server";
 import type { Route } from "./+types/auth.github";
 
 export const nextCookie = createCookie("__hb_next", { httpOnly: true, sameSite: "lax", path: "/", maxAge: 600 });

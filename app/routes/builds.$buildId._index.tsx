@@ -1,12 +1,12 @@
 import { data, Form, useActionData, useNavigation } from "react-router";
 import { BuildMetaFields } from "~/components/BuildMetaFields";
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { buildMetaSchema, STATUS_LABELS } from "~/lib/build-forms";
-import { fieldErrors } from "~/lib/form-errors";
-import { db } from "~/lib/db.server";
-import { fail } from "~/lib/http.server";
-import { can } from "~/lib/permissions";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { buildMetaSchema, STATUS_LABELS } from "~/lib/forms/build-forms";
+import { fieldErrors } from "~/lib/forms/form-errors";
+import { db } from "~/lib/db/db.server";
+import { fail } from "~/lib/web/http.server";
+import { can } from "~/lib/auth/permissions";
 import { listClients, setArchived, updateBuildMeta } from "~/lib/repo/builds.server";
 import type { Route } from "./+types/builds.$buildId._index";
 

@@ -5,15 +5,15 @@ import { data, Form, useNavigation } from "react-router";
 import { DiagnosticList, type LinkedDiagnostic } from "~/components/checks/DiagnosticList";
 import { PowerCard } from "~/components/checks/PowerCard";
 import { SafetyCautions } from "~/components/SafetyCautions";
-import { requireViewer } from "~/lib/auth.server";
-import { MAX_CONFIG_BYTES } from "~/lib/body.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { storeCheckedConfig } from "~/lib/config-store.server";
-import { readConfigUpload } from "~/lib/config-upload.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { MAX_CONFIG_BYTES } from "~/lib/web/body.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { storeCheckedConfig } from "~/lib/checks/save.server";
+import { readConfigUpload } from "~/lib/forms/config-upload.server";
 import { diagnosticHref } from "~/lib/config/links";
-import { powerModeFor } from "~/lib/config/power-mode";
-import { validateConfig, type Diagnostic } from "~/lib/config/validate";
-import { can } from "~/lib/permissions";
+import { powerModeFor } from "~/lib/checks/power-mode";
+import { validateConfig, type Diagnostic } from "~/lib/checks/validate";
+import { can } from "~/lib/auth/permissions";
 import type { Route } from "./+types/builds.$buildId.checks";
 
 export const meta: Route.MetaFunction = ({ matches }) => {

@@ -1,7 +1,7 @@
 // GET /builds/:buildId/config.json: the stored config as a file named after the build, for
 // keeping, editing by hand or importing into another build.
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
 import type { Route } from "./+types/builds.$buildId.config-json";
 
 /** A file name from the build's name: letters, digits and dashes, never empty. */

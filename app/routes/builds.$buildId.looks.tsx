@@ -1,10 +1,10 @@
 // A build's presets and looks: the look editor for builders and owners, the same screen
 // read-only for reviewers and clients. Saving and checking go through the JSON API.
 import { LookEditor } from "~/components/looks/LookEditor";
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
 import type { Config } from "~/lib/config/schema";
-import { can } from "~/lib/permissions";
+import { can } from "~/lib/auth/permissions";
 import type { Route } from "./+types/builds.$buildId.looks";
 
 export const meta: Route.MetaFunction = ({ matches }) => {

@@ -5,17 +5,17 @@ import { useState } from "react";
 import { data, Form, Link, useFetcher, useSubmit } from "react-router";
 import { CodeFrame } from "~/components/templates/CodeFrame";
 import { CodeView } from "~/components/templates/CodeView";
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { storeCheckedConfig } from "~/lib/config-store.server";
-import { validateConfig, type Diagnostic } from "~/lib/config/validate";
-import { db } from "~/lib/db.server";
-import { fail } from "~/lib/http.server";
-import { can } from "~/lib/permissions";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { storeCheckedConfig } from "~/lib/checks/save.server";
+import { validateConfig, type Diagnostic } from "~/lib/checks/validate";
+import { db } from "~/lib/db/db.server";
+import { fail } from "~/lib/web/http.server";
+import { can } from "~/lib/auth/permissions";
 import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate } from "~/lib/repo/templates.server";
-import { readHeader, type ReadError } from "~/lib/template";
-import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
-import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/templates.server";
+import { readHeader, type ReadError } from "~/lib/readback";
+import { BUILTIN_NAMES, isBuiltinName } from "~/lib/rendering/render";
+import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/rendering/service.server";
 import type { Route } from "./+types/builds.$buildId.render";
 
 export const meta: Route.MetaFunction = ({ matches }) => {

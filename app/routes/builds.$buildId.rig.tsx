@@ -1,14 +1,14 @@
 import { useState } from "react";
 import { data, Form, useActionData, useNavigation } from "react-router";
 import { Field, Select } from "~/components/Field";
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { fieldErrors } from "~/lib/form-errors";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { fieldErrors } from "~/lib/forms/form-errors";
 import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/schema";
-import { db } from "~/lib/db.server";
-import { can } from "~/lib/permissions";
+import { db } from "~/lib/db/db.server";
+import { can } from "~/lib/auth/permissions";
 import { saveConfig } from "~/lib/repo/builds.server";
-import { rigFromForm } from "~/lib/rig-form";
+import { rigFromForm } from "~/lib/forms/rig-form";
 import type { Route } from "./+types/builds.$buildId.rig";
 
 export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];

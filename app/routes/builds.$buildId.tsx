@@ -1,8 +1,8 @@
 import { NavLink, Outlet } from "react-router";
-import { requireViewer } from "~/lib/auth.server";
-import { STATUS_LABELS } from "~/lib/build-forms";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { can } from "~/lib/permissions";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { STATUS_LABELS } from "~/lib/forms/build-forms";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { can } from "~/lib/auth/permissions";
 import type { Route } from "./+types/builds.$buildId";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.build.name ?? "Build"} · Hiltbench` }];

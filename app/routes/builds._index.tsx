@@ -1,10 +1,10 @@
 import { Form, Link, useSearchParams } from "react-router";
-import { requireViewer } from "~/lib/auth.server";
-import { db } from "~/lib/db.server";
-import { parseBuildQuery, STATUS_LABELS } from "~/lib/build-forms";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { db } from "~/lib/db/db.server";
+import { parseBuildQuery, STATUS_LABELS } from "~/lib/forms/build-forms";
 import { BUILD_STATUSES } from "~/lib/db/types";
-import { can } from "~/lib/permissions";
-import { scopeFor } from "~/lib/build-access.server";
+import { can } from "~/lib/auth/permissions";
+import { scopeFor } from "~/lib/auth/build-access.server";
 import { listBuilds } from "~/lib/repo/builds.server";
 import type { Route } from "./+types/builds._index";
 

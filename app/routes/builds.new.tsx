@@ -1,9 +1,9 @@
 import { Form, redirect, useActionData } from "react-router";
-import { requireViewer } from "~/lib/auth.server";
-import { buildMetaSchema } from "~/lib/build-forms";
-import { fieldErrors } from "~/lib/form-errors";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { buildMetaSchema } from "~/lib/forms/build-forms";
+import { fieldErrors } from "~/lib/forms/form-errors";
 import { starterConfig } from "~/lib/config/starter";
-import { db } from "~/lib/db.server";
+import { db } from "~/lib/db/db.server";
 import { createBuild, listClients } from "~/lib/repo/builds.server";
 import { data } from "react-router";
 import type { Route } from "./+types/builds.new";

@@ -1,5 +1,5 @@
 import { redirect, Link } from "react-router";
-import { getSessionUserId } from "~/lib/auth.server";
+import { getSessionUserId } from "~/lib/auth/auth.server";
 import type { Route } from "./+types/home";
 
 export const meta: Route.MetaFunction = () => [{ title: "Hiltbench" }];

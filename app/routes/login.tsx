@@ -1,5 +1,5 @@
 import { Form, redirect, useSearchParams } from "react-router";
-import { getSessionUserId } from "~/lib/auth.server";
+import { getSessionUserId } from "~/lib/auth/auth.server";
 import type { Route } from "./+types/login";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Hiltbench" }];

@@ -1,5 +1,5 @@
 import { redirect } from "react-router";
-import { sessions } from "~/lib/session.server";
+import { sessions } from "~/lib/auth/session.server";
 import type { Route } from "./+types/logout";
 
 export async function loader() {

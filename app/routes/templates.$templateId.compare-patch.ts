@@ -1,11 +1,11 @@
 // GET /templates/:templateId/compare.patch?compare=2..3: the line changes between two versions
 // of a workshop template as a unified diff file, the same diff the template page shows.
-import { requireViewer } from "~/lib/auth.server";
-import { db } from "~/lib/db.server";
-import { fail } from "~/lib/http.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { db } from "~/lib/db/db.server";
+import { fail } from "~/lib/web/http.server";
 import { getTemplate, getTemplateVersion } from "~/lib/repo/templates.server";
-import { diffVersions, parseCompare, patchFileName } from "~/lib/template-diff";
-import { isBuiltinName } from "~/lib/template-render";
+import { diffVersions, parseCompare, patchFileName } from "~/lib/rendering/version-diff";
+import { isBuiltinName } from "~/lib/rendering/render";
 import type { Route } from "./+types/templates.$templateId.compare-patch";
 
 /** Failures as plain text with their status: this address is followed by a download link. */

@@ -2,14 +2,14 @@
 // start a new one from a copy of any of them. After a delete the list says what went.
 import { data, Form, Link, redirect, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
-import { requireViewer } from "~/lib/auth.server";
-import { db } from "~/lib/db.server";
-import { can } from "~/lib/permissions";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { db } from "~/lib/db/db.server";
+import { can } from "~/lib/auth/permissions";
 import { createTemplate, getTemplateVersion, listTemplates } from "~/lib/repo/templates.server";
 import { BUILTIN_TEMPLATES } from "~/lib/template";
-import { BUILTIN_NAMES, isBuiltinName } from "~/lib/template-render";
+import { BUILTIN_NAMES, isBuiltinName } from "~/lib/rendering/render";
 import type { Route } from "./+types/templates._index";
-import { fieldErrors } from "~/lib/form-errors";
+import { fieldErrors } from "~/lib/forms/form-errors";
 
 export const meta: Route.MetaFunction = () => [{ title: "Templates · Hiltbench" }];
 

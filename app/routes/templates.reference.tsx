@@ -1,7 +1,7 @@
 // The template language reference, read from the same REFERENCE.md that ships beside the code.
 import { Link } from "react-router";
 import { Markdown } from "~/components/Markdown";
-import { requireViewer } from "~/lib/auth.server";
+import { requireViewer } from "~/lib/auth/auth.server";
 import reference from "~/lib/template/REFERENCE.md?raw";
 import type { Route } from "./+types/templates.reference";
 

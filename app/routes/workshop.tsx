@@ -1,11 +1,11 @@
 import { data, Form, useActionData } from "react-router";
 import { z } from "zod";
-import { requireViewer } from "~/lib/auth.server";
-import { fieldErrors } from "~/lib/form-errors";
-import { db } from "~/lib/db.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { fieldErrors } from "~/lib/forms/form-errors";
+import { db } from "~/lib/db/db.server";
 import { ROLES } from "~/lib/db/types";
-import { fail } from "~/lib/http.server";
-import { can } from "~/lib/permissions";
+import { fail } from "~/lib/web/http.server";
+import { can } from "~/lib/auth/permissions";
 import { cancelInvitation, changeRole, invite, listInvitations, listMembers, removeMember } from "~/lib/repo/users.server";
 import type { Route } from "./+types/workshop";
 

@@ -2,7 +2,7 @@
 // validator's floor: it always parses once). Targets: ≤ 3× the parse; the demo under 2 ms.
 import { demoConfig } from "../../app/lib/config/demo";
 import { configSchema, type Config } from "../../app/lib/config/schema";
-import { validateConfig } from "../../app/lib/config/validate";
+import { validateConfig } from "../../app/lib/checks/validate";
 
 /** The demo's five presets repeated to 100, each with its own id and name. */
 export function stressConfig(presets = 100): Config {

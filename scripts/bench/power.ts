@@ -3,7 +3,7 @@
 // rendered frames ("engine", what the API and the look editor use), which costs far more.
 import { demoConfig } from "../../app/lib/config/demo";
 import { configSchema } from "../../app/lib/config/schema";
-import { validateConfig } from "../../app/lib/config/validate";
+import { validateConfig } from "../../app/lib/checks/validate";
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);

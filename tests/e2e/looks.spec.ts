@@ -8,7 +8,7 @@ import type { Page } from "@playwright/test";
 import type pg from "pg";
 import { newLayer } from "../../app/lib/config/layers";
 import type { Config } from "../../app/lib/config/schema";
-import { presetPowerFigures } from "../../app/lib/looks/power-figures";
+import { presetPowerFigures } from "../../app/lib/power/figures";
 import { test, expect, buildIdByName } from "./fixtures";
 
 /** Kestrel's stored config as the test found it; put back afterwards so other specs see the seed. */

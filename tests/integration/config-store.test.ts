@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import type { Kysely } from "kysely";
 import type { Database } from "~/lib/db/types";
 import { demoConfig } from "~/lib/config/demo";
-import { storeCheckedConfigIn } from "~/lib/config-store.server";
+import { storeCheckedConfigIn } from "~/lib/checks/save.server";
 import { seed } from "../../db/seed";
 import { freshDb, hasDatabase } from "./db";
 

@@ -5,7 +5,7 @@ import { sql, type Kysely } from "kysely";
 import type { Database } from "~/lib/db/types";
 import { demoConfig } from "~/lib/config/demo";
 import { createTemplate, latestSources, pinTemplate, saveTemplateVersion, sourcesForVersion, templateDependents, usesOf } from "~/lib/repo/templates.server";
-import { compileAndRender } from "~/lib/template-render";
+import { compileAndRender } from "~/lib/rendering/render";
 import { seed } from "../../db/seed";
 import { freshDb, hasDatabase } from "./db";
 

@@ -1,7 +1,7 @@
 // Diagnostics grouped by severity, each with its message, hint, code and path, and a link to
 // the place it concerns when there is one. Used for the stored config and for refused imports.
 import { Link } from "react-router";
-import type { Diagnostic, Severity } from "~/lib/config/diagnostics";
+import type { Diagnostic, Severity } from "~/lib/checks/diagnostics";
 
 export type LinkedDiagnostic = Diagnostic & { href?: string | null };
 

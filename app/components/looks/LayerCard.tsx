@@ -2,7 +2,7 @@
 // drag) and remove it, and its fields when opened. Memoised: with hundreds of layers, typing in
 // one must not re-render the others.
 import { memo, useRef, useState } from "react";
-import type { Diagnostic } from "~/lib/config/diagnostics";
+import type { Diagnostic } from "~/lib/checks/diagnostics";
 import type { Channel, Layer } from "~/lib/config/schema";
 import type { EditorAction } from "~/lib/looks/editor-state";
 import { layerPath } from "~/lib/looks/diagnostic-index";

@@ -3,7 +3,7 @@
 // panel. State lives in the pure editor reducer; checks come from the server as edits settle.
 import { useCallback, useEffect, useMemo, useReducer, useState } from "react";
 import { useBlocker } from "react-router";
-import type { Diagnostic } from "~/lib/config/diagnostics";
+import type { Diagnostic } from "~/lib/checks/diagnostics";
 import type { Config } from "~/lib/config/schema";
 import { indexDiagnostics } from "~/lib/looks/diagnostic-index";
 import { canRedo, canUndo, editorReducer, initEditor, isDirty, type EditorAction } from "~/lib/looks/editor-state";

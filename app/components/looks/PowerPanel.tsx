@@ -5,7 +5,7 @@ import { useEffect, useRef, useState } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Config } from "~/lib/config/schema";
 import { SafetyCautions } from "~/components/SafetyCautions";
-import { presetPowerFigures, type PresetPowerFigures } from "~/lib/looks/power-figures";
+import { presetPowerFigures, type PresetPowerFigures } from "~/lib/power/figures";
 import type { PowerReply, PowerRequest } from "./power.worker";
 import { Figure } from "~/components/Figure";
 

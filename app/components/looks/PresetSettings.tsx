@@ -1,6 +1,6 @@
 // The selected preset's own settings (name, font, duplicate, delete) and the list of every
 // check, which also carries the ones no control on screen shows (other presets, rig, fonts).
-import { hasErrors, type Diagnostic } from "~/lib/config/diagnostics";
+import { hasErrors, type Diagnostic } from "~/lib/checks/diagnostics";
 import type { Config } from "~/lib/config/schema";
 import { presetPath } from "~/lib/looks/diagnostic-index";
 import type { EditorAction } from "~/lib/looks/editor-state";

@@ -1,7 +1,7 @@
 import { createElement as h } from "react";
 import { renderToString } from "react-dom/server";
 import { describe, expect, it } from "vitest";
-import type { Diagnostic } from "~/lib/config/diagnostics";
+import type { Diagnostic } from "~/lib/checks/diagnostics";
 import { indexDiagnostics } from "~/lib/looks/diagnostic-index";
 import { ColourInput, EditorContext, NumberInput } from "./controls";
 

@@ -2,7 +2,7 @@
 // diagnostics for that path beside itself, and keeps what a person typed until it makes sense
 // (a half-typed number or colour never reaches the draft, and never the preview).
 import { createContext, useContext, useEffect, useId, useState, type ReactNode } from "react";
-import type { Diagnostic } from "~/lib/config/diagnostics";
+import type { Diagnostic } from "~/lib/checks/diagnostics";
 import { EMPTY_INDEX, type DiagnosticIndex } from "~/lib/looks/diagnostic-index";
 
 export const EditorContext = createContext<{ checks: DiagnosticIndex; readOnly: boolean }>({ checks: EMPTY_INDEX, readOnly: true });

@@ -2,9 +2,9 @@
 // a newer draft cancels an older request, and a draft the schema rejects is reported at once
 // from the same structural rules the server runs, so a bad value is flagged before any fetch.
 import { useEffect, useMemo, useRef, useState } from "react";
-import type { Diagnostic } from "~/lib/config/diagnostics";
+import type { Diagnostic } from "~/lib/checks/diagnostics";
 import { configSchema, type Config } from "~/lib/config/schema";
-import { structureDiagnostics } from "~/lib/config/structure";
+import { structureDiagnostics } from "~/lib/checks/structure";
 
 export const CHECK_DELAY_MS = 300;
 

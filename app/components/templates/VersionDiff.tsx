@@ -1,7 +1,7 @@
 // Two versions of a template side by side in one unified list: each changed line carries a
 // sign and a word (added / removed) as well as a colour, and both line numbers.
 import { Form, Link } from "react-router";
-import type { DiffRow, VersionDiff as Diff } from "~/lib/template-diff";
+import type { DiffRow, VersionDiff as Diff } from "~/lib/rendering/version-diff";
 
 export type CompareData = { from: number; to: number; diff: Diff; patchHref: string; closeHref: string };
 

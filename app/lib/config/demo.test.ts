@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import { demoConfig, demoConfigSmall } from "./demo";
 import { configSchema } from "./schema";
-import { validateConfig } from "./validate";
+import { validateConfig } from "../checks/validate";
 
 describe("demo configs", () => {
   it("Kestrel's config is valid, with the Northlight font still promised", () => {

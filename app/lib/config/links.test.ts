@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { demoConfig } from "./demo";
 import { diagnosticHref, parsePath } from "./links";
-import { validateConfig } from "./validate";
+import { validateConfig } from "../checks/validate";
 
 describe("parsePath", () => {
   it("reads dotted keys, indexes and quoted keys", () => {

@@ -4,7 +4,7 @@
 import type { Config } from "~/lib/config/schema";
 import { createRenderer, renderContextFor } from "./engine";
 import { DEMO_SEQUENCE, DEMO_SEQUENCE_FRAMES } from "./timeline";
-import { SEQUENCE_SEED } from "./power";
+import { SEQUENCE_SEED } from "../power/sequence";
 
 export interface RgbaImage {
   width: number;

@@ -1,7 +1,7 @@
 // Diagnostics by the control they concern. The validator names a value by its JSON path
 // (presets[2].looks.chamber.layers[1].periodMs); the editor builds the same path for each control
 // and asks here what to show beside it.
-import { joinPath, keySegment, type Diagnostic, type PathSegment } from "~/lib/config/diagnostics";
+import { joinPath, keySegment, type Diagnostic, type PathSegment } from "~/lib/checks/diagnostics";
 
 export function presetPath(presetIndex: number, field?: string): string {
   const base = `presets[${presetIndex}]`;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { demoConfig } from "~/lib/config/demo";
 import { configSchema, LAYER_KINDS } from "~/lib/config/schema";
-import { validate } from "~/lib/config/validate";
+import { validate } from "~/lib/checks/validate";
 import { canRedo, canUndo, editorReducer, HISTORY_LIMIT, initEditor, isDirty, selectedPreset, uniqueId, type EditorAction, type EditorState } from "./editor-state";
 import { indexDiagnostics, layerPath, lookPath, presetPath } from "./diagnostic-index";
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { demoConfig } from "../config/demo";
-import { BUILTIN_TEMPLATES, compileTemplate, formatError, readHeader, render, renderTemplate, templateCache, type TemplateError } from "./index";
+import { BUILTIN_TEMPLATES, compileTemplate, formatError, render, renderTemplate, templateCache, type TemplateError } from "./index";
+import { readHeader } from "../readback";
 import { META } from "./test-helpers";
 
 describe("public API", () => {

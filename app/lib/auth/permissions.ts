@@ -1,0 +1,32 @@
+// Roles map to sets of typed permissions here and nowhere else. Routes ask for a permission,
+// never for a role, so a change of policy is a change to this table.
+import type { Role } from "../db/types";
+
+export const PERMISSIONS = [
+  "view:builds", // see the workshop's builds (clients see only their own, checked per build)
+  "create:build",
+  "edit:build",
+  "archive:build",
+  "view:members",
+  "manage:members",
+  "use:api",
+  "view:templates", // the workshop's templates and their editor (read-only without edit:template)
+  "edit:template",
+] as const;
+export type Permission = (typeof PERMISSIONS)[number];
+
+const table: Record<Role, ReadonlySet<Permission>> = {
+  owner: new Set(PERMISSIONS),
+  builder: new Set(["view:builds", "create:build", "edit:build", "archive:build", "view:members", "use:api", "view:templates", "edit:template"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates"]),
+  client: new Set(["view:builds", "use:api"]),
+};
+
+export function can(role: Role, permission: Permission): boolean {
+  return table[role].has(permission);
+}
+
+/** Clients see only the builds they are the client of; everyone else sees the workshop's. */
+export function seesOnlyOwnBuilds(role: Role): boolean {
+  return role === "client";
+}

@@ -1,0 +1,12 @@
+// The app server's one database handle, created lazily from the validated environment.
+import type { Kysely } from "kysely";
+import { connect } from "./connect";
+import type { Database } from "./types";
+import { env } from "../env.server";
+
+let instance: Kysely<Database> | undefined;
+
+export function db(): Kysely<Database> {
+  instance ??= connect(env().DATABASE_URL);
+  return instance;
+}
