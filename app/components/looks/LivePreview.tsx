@@ -6,7 +6,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import type { BladeEvent, Config } from "~/lib/config/schema";
 import { createRenderer, renderContextFor } from "~/lib/effects/engine";
 import * as live from "~/lib/effects/live";
-import { SEQUENCE_SEED } from "~/lib/power/sequence";
+import { SEQUENCE_SEED } from "~/lib/effects/timeline";
 import { summarizeFrame, type FrameSummary } from "~/lib/effects/summary";
 import type { TimelineEvent } from "~/lib/effects/timeline";
 import { ChannelPreview, type ChannelPreviewHandle } from "./ChannelPreview";

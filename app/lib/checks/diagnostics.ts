@@ -2,9 +2,9 @@
 // same way. A path is written the way a person would point at the value in the JSON, e.g.
 // presets[2].looks.chamber.layers[1].periodMs.
 
-import type { RuleCode } from "./rules/codes";
+import type { RuleCode, Severity } from "./rules/codes";
 
-export type Severity = "error" | "warning" | "info";
+export type { Severity };
 
 export type Diagnostic = {
   severity: Severity;

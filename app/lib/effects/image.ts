@@ -3,8 +3,7 @@
 // glance shows the ignition edge, the clash flash, the lockup band and the retraction.
 import type { Config } from "~/lib/config/schema";
 import { createRenderer, renderContextFor } from "./engine";
-import { DEMO_SEQUENCE, DEMO_SEQUENCE_FRAMES } from "./timeline";
-import { SEQUENCE_SEED } from "../power/sequence";
+import { DEMO_SEQUENCE, DEMO_SEQUENCE_FRAMES, SEQUENCE_SEED } from "./timeline";
 
 export interface RgbaImage {
   width: number;

@@ -12,6 +12,9 @@ export type Timeline = readonly TimelineEvent[];
 
 const FRAME_MS = 1000 / 60;
 
+/** Seed used for every server-side figure and picture of the sequence, so the same config always gives the same numbers. */
+export const SEQUENCE_SEED = 1;
+
 /**
  * The demonstration sequence, the one run everywhere a look is shown without a user at the
  * buttons (time-by-pixel picture, power figures, handoff previews): ignition at 0, idle, clash,

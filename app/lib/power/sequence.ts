@@ -3,15 +3,13 @@
 import type { Channel, Config } from "~/lib/config/schema";
 import { audioMilliamps, boardIdleMilliamps, frameCurrentMilliamps, typicalAudioMilliamps } from "~/lib/power/current";
 import { createRenderer, renderContextFor } from "../effects/engine";
-import { bladeStateAt, DEMO_SEQUENCE, DEMO_SEQUENCE_MS, heldSince, latestEventAt, type BladeState, type Timeline } from "../effects/timeline";
+import { bladeStateAt, DEMO_SEQUENCE, DEMO_SEQUENCE_MS, heldSince, latestEventAt, SEQUENCE_SEED, type BladeState, type Timeline } from "../effects/timeline";
 
 /**
  * Assumption, not a measurement: an ignition, clash, blast or retraction sound plays near the
  * speaker's rating for about this long; lockup and drag play near it for as long as they are held.
  */
 export const EFFECT_SOUND_MS = 500;
-/** Seed used for every server-side figure, so the same config always gives the same numbers. */
-export const SEQUENCE_SEED = 1;
 
 const LOUD_MOMENTS = ["ignition", "retraction", "clash", "blast"] as const;
 

@@ -1,6 +1,7 @@
 // Every code the validator can emit, with its usual severity and a one-line meaning. Codes are
 // stable: editors, scripts and saved review comments match on them, so add codes, never rename.
-import type { Severity } from "../diagnostics";
+/** How much a diagnostic matters; defined here, beside the codes, so diagnostics.ts imports this file and not the other way round. */
+export type Severity = "error" | "warning" | "info";
 
 export type RuleInfo = { severity: Severity; area: "structure" | "references" | "completeness" | "rig" | "timing" | "power"; summary: string };
 
