@@ -117,6 +117,13 @@ describe("import cycles under app/", () => {
     expect(cycles(graph).map((c) => c.map(rel))).toEqual([]);
   });
 
+  it("keeps routes off the database handle: they call the domain, which goes through repo/", () => {
+    const handle = path.join(appDir, "lib/db/db.server.ts");
+    const routes = [...graph].filter(([from, tos]) => concernOf(from) === "routes" && tos.has(handle)).map(([from]) => rel(from));
+    // The health check asks the database to answer and nothing else.
+    expect(routes).toEqual(["app/routes/healthz.ts"]);
+  });
+
   it("has no cycle between concern folders", () => {
     const folders = new Map<string, Set<string>>();
     const why = new Map<string, string>();

@@ -1,16 +1,15 @@
 import { data, Form, useActionData } from "react-router";
 import { z } from "zod";
 import { requireViewer } from "~/lib/auth/auth.server";
-import { db } from "~/lib/db/db.server";
+import { createTokenFor, revokeTokenOf, tokensOf } from "~/lib/auth/account.server";
 import { fail } from "~/lib/web/http.server";
-import { createToken, listTokens, revokeToken } from "~/lib/repo/tokens.server";
 import type { Route } from "./+types/account";
 
 export const meta: Route.MetaFunction = () => [{ title: "Account · Hiltbench" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const v = await requireViewer(request);
-  const tokens = await listTokens(db(), v.user.id);
+  const tokens = await tokensOf(v);
   return {
     user: v.user,
     role: v.role,
@@ -24,12 +23,12 @@ export async function action({ request }: Route.ActionArgs) {
   if (form.get("intent") === "create") {
     const name = z.string().trim().min(1, "Name the token (what script uses it?).").max(60, "Keep the name under 60 characters.").safeParse(form.get("name") ?? "");
     if (!name.success) return data({ error: name.error.issues[0].message, token: null }, { status: 400 });
-    const t = await createToken(db(), v.user.id, name.data);
+    const t = await createTokenFor(v, name.data);
     return { error: null, token: t.token };
   }
   if (form.get("intent") === "revoke") {
     const id = z.uuid().safeParse(form.get("tokenId"));
-    if (!id.success || !(await revokeToken(db(), v.user.id, id.data))) fail(404, "No such active token.");
+    if (!id.success || !(await revokeTokenOf(v, id.data))) fail(404, "No such active token.");
     return { error: null, token: null };
   }
   fail(400, "Unknown action.");

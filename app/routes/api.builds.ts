@@ -1,16 +1,14 @@
 import { requireViewer } from "~/lib/auth/auth.server";
-import { scopeFor } from "~/lib/auth/build-access.server";
 import { parseBuildQuery } from "~/lib/forms/build-forms";
-import { db } from "~/lib/db/db.server";
 import { apiAnswer, json } from "~/lib/web/http.server";
-import { listBuilds } from "~/lib/repo/builds.server";
+import { buildsFor } from "~/lib/builds/builds.server";
 import type { Route } from "./+types/api.builds";
 
 export function loader({ request }: Route.LoaderArgs) {
   return apiAnswer(async () => {
     const v = await requireViewer(request, "view:builds");
     const query = parseBuildQuery(new URL(request.url));
-    const { rows, total } = await listBuilds(db(), scopeFor(v), query);
+    const { rows, total } = await buildsFor(v, query);
     return json({
       total,
       page: query.page,

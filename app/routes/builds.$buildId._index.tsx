@@ -4,10 +4,9 @@ import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { buildMetaSchema, STATUS_LABELS } from "~/lib/forms/build-forms";
 import { fieldErrors } from "~/lib/forms/form-errors";
-import { db } from "~/lib/db/db.server";
 import { fail } from "~/lib/web/http.server";
 import { can } from "~/lib/auth/permissions";
-import { listClients, setArchived, updateBuildMeta } from "~/lib/repo/builds.server";
+import { clientsOf, setArchivedFor, updateDetails } from "~/lib/builds/builds.server";
 import type { Route } from "./+types/builds.$buildId._index";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -34,7 +33,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     },
     canEdit,
     canArchive: can(v.role, "archive:build"),
-    clients: canEdit ? await listClients(db(), v.workshop.id) : [],
+    clients: canEdit ? await clientsOf(v) : [],
   };
 }
 
@@ -44,7 +43,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (intent === "archive" || intent === "unarchive") {
     const v = await requireViewer(request, "archive:build");
     await loadBuildFor(v, params.buildId);
-    await setArchived(db(), v.workshop.id, params.buildId, intent === "archive");
+    await setArchivedFor(v, params.buildId, intent === "archive");
     return { ok: true as const, errors: undefined };
   }
   if (intent !== "save") fail(400, "Unknown action.");
@@ -52,9 +51,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   await loadBuildFor(v, params.buildId);
   const parsed = buildMetaSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error) }, { status: 400 });
-  if (parsed.data.clientUserId && !(await listClients(db(), v.workshop.id)).some((c) => c.id === parsed.data.clientUserId))
-    return data({ ok: false as const, errors: { clientUserId: "Choose a client account of this workshop." } }, { status: 400 });
-  await updateBuildMeta(db(), v.workshop.id, params.buildId, parsed.data);
+  const r = await updateDetails(v, params.buildId, parsed.data);
+  if (!r.ok) return data({ ok: false as const, errors: r.errors }, { status: 400 });
   return { ok: true as const, errors: undefined };
 }
 

@@ -14,6 +14,7 @@ import { diagnosticHref } from "~/lib/config/links";
 import { powerModeFor } from "~/lib/checks/power-mode";
 import { validateConfig, type Diagnostic } from "~/lib/checks/validate";
 import { can } from "~/lib/auth/permissions";
+import { failureOf } from "~/lib/web/http.server";
 import type { Route } from "./+types/builds.$buildId.checks";
 
 export const meta: Route.MetaFunction = ({ matches }) => {
@@ -44,10 +45,6 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 type ImportAnswer = { ok: boolean; message: string; problems: Diagnostic[]; warnings: Diagnostic[] };
 
-function isFailure(e: unknown): e is { type: "DataWithResponseInit"; data: { message?: string }; init: ResponseInit | null } {
-  return typeof e === "object" && e !== null && (e as { type?: string }).type === "DataWithResponseInit";
-}
-
 export async function action({ request, params }: Route.ActionArgs) {
   const v = await requireViewer(request, "edit:build");
   const b = await loadBuildFor(v, params.buildId);
@@ -61,7 +58,8 @@ export async function action({ request, params }: Route.ActionArgs) {
     return answer(200, { ok: true, message: `Imported "${upload.fileName}" as version ${r.version}.`, problems: [], warnings });
   } catch (e) {
     // A refused upload is shown beside the form, not as an error page.
-    if (isFailure(e)) return answer(e.init?.status ?? 400, { ok: false, message: e.data?.message ?? "The file could not be imported.", problems: [], warnings: [] }, e.init?.headers);
+    const f = failureOf(e);
+    if (f) return answer(f.status, { ok: false, message: f.message, problems: [], warnings: [] }, f.headers);
     throw e;
   }
 }

@@ -5,17 +5,16 @@ import { useState } from "react";
 import { data, Form, Link, useFetcher, useSubmit } from "react-router";
 import { CodeFrame } from "~/components/templates/CodeFrame";
 import { CodeView } from "~/components/templates/CodeView";
-import { requireViewer } from "~/lib/auth/auth.server";
+import { requirePermission, requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { can, isRenderViewAction, RENDER_VIEW_ACTIONS } from "~/lib/auth/permissions";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
-import { validateConfig, type Diagnostic } from "~/lib/checks/validate";
-import { db } from "~/lib/db/db.server";
+import type { Diagnostic } from "~/lib/checks/validate";
+import { readAndCheck, readHeader, type ReadError } from "~/lib/readback";
+import { isPinnable, pinForBuild, templateChoices } from "~/lib/rendering/library.server";
+import { chooseTemplateForBuild, pinnedTemplate, renderBuildOrSource } from "~/lib/rendering/service.server";
+import { readFormLimited } from "~/lib/web/body.server";
 import { fail } from "~/lib/web/http.server";
-import { can } from "~/lib/auth/permissions";
-import { getTemplateVersion, isForeignKeyViolation, listTemplates, pinTemplate } from "~/lib/repo/templates.server";
-import { readHeader, type ReadError } from "~/lib/readback";
-import { BUILTIN_NAMES, isBuiltinName } from "~/lib/rendering/render";
-import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "~/lib/rendering/service.server";
 import type { Route } from "./+types/builds.$buildId.render";
 
 export const meta: Route.MetaFunction = ({ matches }) => {
@@ -29,28 +28,21 @@ const MAX_HEADER_BYTES = 2 * 1024 * 1024;
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
-  const url = new URL(request.url);
   const pinned = await pinnedTemplate(v, b);
-  const ref = url.searchParams.get("template");
-  const t = !ref || ref === (pinned.id ?? pinned.name) ? pinned : await resolveTemplate(v, ref);
+  const t = await chooseTemplateForBuild(v, b, new URL(request.url).searchParams.get("template"), undefined, pinned);
   // In a worker, with the API's clock (decision 007): this page renders on the server too.
-  const r = await renderBuildWith(v, b, t, API_LIMITS);
-  const workshop = await listTemplates(db(), v.workshop.id);
-  // The workshop templates this version uses, at the versions it recorded when it was saved.
-  const uses = Object.entries(r.uses).map(([name, u]) => ({ name, version: u.version }));
-  const pinnedLatest = pinned.id ? workshop.find((w) => w.id === pinned.id)?.latest ?? pinned.version : null;
+  const r = await renderBuildOrSource(v, { build: b }, t);
+  const { choices, pinnedLatest } = await templateChoices(v, pinned);
   return {
     buildId: b.id,
     buildName: b.name,
     configVersion: b.config_version,
-    template: { id: t.id, name: t.name, version: t.version, kind: t.kind, ref: t.id ?? t.name, uses },
+    // The workshop templates this version uses, at the versions it recorded when it was saved.
+    template: { id: t.id, name: t.name, version: t.version, kind: t.kind, ref: t.id ?? t.name, uses: Object.entries(r.uses).map(([name, u]) => ({ name, version: u.version })), pinnable: isPinnable(t) },
     pinned: { id: pinned.id, name: pinned.name, version: pinned.version, latest: pinnedLatest },
-    choices: [
-      ...BUILTIN_NAMES.map((n) => ({ ref: n, label: `${n} (built-in)` })),
-      ...workshop.map((w) => ({ ref: w.id, label: `${w.name} (v${w.id === pinned.id ? pinned.version : w.latest})` })),
-    ],
+    choices,
     // A failed render quotes the template's lines under its errors (the page does not show it).
-    result: r.ok ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: apiErrors(r, API_LIMITS), source: t.source },
+    result: r.kind === "rendered" ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: r.errors, source: t.source },
     canEdit: can(v.role, "edit:build"),
   };
 }
@@ -59,61 +51,33 @@ type ReadAnswer =
   | { intent: "read"; errors: ReadError[]; diagnostics: Diagnostic[]; summary: string | null }
   | { intent: "apply"; ok: boolean; message: string; diagnostics: Diagnostic[] };
 
-function summarize(config: { rig: { channels: unknown[] }; presets: unknown[]; fonts: unknown[] }) {
-  const n = (k: number, w: string) => `${k} ${w}${k === 1 ? "" : "s"}`;
-  return `${n(config.rig.channels.length, "channel")}, ${n(config.presets.length, "preset")}, ${n(config.fonts.length, "font")}`;
-}
-
 export async function action({ request, params }: Route.ActionArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
-  const declared = Number(request.headers.get("Content-Length"));
-  if (Number.isFinite(declared) && declared > MAX_HEADER_BYTES) fail(413, "The form is larger than 2 MB; a header file is far smaller.");
-  const form = await request.formData();
+  const form = await readFormLimited(request, MAX_HEADER_BYTES, "The form is larger than 2 MB; a header file is far smaller.");
   const intent = form.get("intent");
+  if (!isRenderViewAction(intent)) fail(400, "Unknown action: use intent 'read', 'apply' or 'pin'.");
+  requirePermission(v, RENDER_VIEW_ACTIONS[intent]);
   if (intent === "read") {
     const text = form.get("header");
     if (typeof text !== "string" || text.trim() === "") return data<ReadAnswer>({ intent: "read", errors: [{ line: 1, column: 1, message: "Paste a header or choose a file first." }], diagnostics: [], summary: null }, { status: 400 });
-    const read = readHeader(text);
-    if (!read.config || read.errors.length) return data<ReadAnswer>({ intent: "read", errors: read.errors, diagnostics: [], summary: null }, { status: 422 });
-    const checked = validateConfig(read.config);
-    return data<ReadAnswer>({ intent: "read", errors: [], diagnostics: checked.diagnostics.filter((d) => d.severity !== "info"), summary: summarize(read.config) });
+    const c = readAndCheck(text);
+    return data<ReadAnswer>({ intent: "read", errors: c.errors, diagnostics: c.diagnostics, summary: c.summary }, { status: c.config ? 200 : 422 });
   }
-  if (!can(v.role, "edit:build")) fail(403, `Your role (${v.role}) does not allow this.`);
   if (intent === "pin") {
-    const ref = form.get("template");
-    const version = Number(form.get("version"));
-    if (typeof ref !== "string" || ref === "") fail(400, "Choose the template to pin.");
-    if (isBuiltinName(ref)) {
-      if (ref !== "generic-header") fail(400, "Only the generic header (or a workshop template) can be a build's template; the other built-ins are for reading.");
-      await pinTemplate(db(), v.workshop.id, b.id, null);
-      return data({ intent: "pin" as const, ok: true });
-    }
-    if (!Number.isInteger(version) || version < 1) fail(400, "Say which version of the template to pin.");
-    const t = await getTemplateVersion(db(), v.workshop.id, ref, version);
-    if (!t) fail(404, "No such template version in your workshop.");
-    try {
-      await pinTemplate(db(), v.workshop.id, b.id, { templateId: t.id, version: t.version });
-    } catch (e) {
-      // The template was deleted between the check above and the pin: nothing changed.
-      if (isForeignKeyViolation(e)) fail(409, "This template was deleted just now; the build keeps its template.");
-      throw e;
-    }
+    await pinForBuild(v, b.id, form.get("template"), Number(form.get("version")));
     return data({ intent: "pin" as const, ok: true });
   }
-  if (intent === "apply") {
-    const text = form.get("header");
-    const expected = Number(form.get("configVersion"));
-    if (typeof text !== "string" || text.trim() === "") fail(400, "The form has no header text.");
-    if (!Number.isInteger(expected) || expected < 0) fail(400, "The form must carry the config version the page was read at.");
-    const read = readHeader(text);
-    if (!read.config || read.errors.length) return data<ReadAnswer>({ intent: "apply", ok: false, message: "The header does not read back; nothing was stored.", diagnostics: [] }, { status: 422 });
-    const r = await storeCheckedConfig(v, b.id, read.config, expected);
-    if (r.kind === "invalid") return data<ReadAnswer>({ intent: "apply", ok: false, message: r.message, diagnostics: r.diagnostics }, { status: 422 });
-    if (r.kind === "stale") return data<ReadAnswer>({ intent: "apply", ok: false, message: r.message, diagnostics: [] }, { status: 409 });
-    return data<ReadAnswer>({ intent: "apply", ok: true, message: `The header is now the build's config (version ${r.version}).`, diagnostics: [] });
-  }
-  fail(400, "Unknown action: use intent 'read', 'apply' or 'pin'.");
+  const text = form.get("header");
+  const expected = Number(form.get("configVersion"));
+  if (typeof text !== "string" || text.trim() === "") fail(400, "The form has no header text.");
+  if (!Number.isInteger(expected) || expected < 0) fail(400, "The form must carry the config version the page was read at.");
+  const read = readHeader(text);
+  if (!read.config || read.errors.length) return data<ReadAnswer>({ intent: "apply", ok: false, message: "The header does not read back; nothing was stored.", diagnostics: [] }, { status: 422 });
+  const r = await storeCheckedConfig(v, b.id, read.config, expected);
+  if (r.kind === "invalid") return data<ReadAnswer>({ intent: "apply", ok: false, message: r.message, diagnostics: r.diagnostics }, { status: 422 });
+  if (r.kind === "stale") return data<ReadAnswer>({ intent: "apply", ok: false, message: r.message, diagnostics: [] }, { status: 409 });
+  return data<ReadAnswer>({ intent: "apply", ok: true, message: `The header is now the build's config (version ${r.version}).`, diagnostics: [] });
 }
 
 export default function RenderPage({ loaderData }: Route.ComponentProps) {
@@ -189,7 +153,7 @@ export default function RenderPage({ loaderData }: Route.ComponentProps) {
           <span role="status" className="text-sm text-iron-300">
             {copied}
           </span>
-          {canEdit && !isPinned && (template.kind === "workshop" || template.ref === "generic-header") ? (
+          {canEdit && !isPinned && template.pinnable ? (
             <pin.Form method="post">
               <input type="hidden" name="intent" value="pin" />
               <input type="hidden" name="template" value={template.ref} />
@@ -227,7 +191,7 @@ export default function RenderPage({ loaderData }: Route.ComponentProps) {
                     {e.line}:{e.column}
                   </span>{" "}
                   ({e.stage}) {e.message}
-                  {e.line >= 1 ? <CodeFrame source={result.source} error={e} testId="render-error-frame" /> : null}
+                  {e.line !== null && e.line >= 1 ? <CodeFrame source={result.source} error={e} testId="render-error-frame" /> : null}
                 </li>
               ))}
             </ul>

@@ -5,9 +5,8 @@ import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { fieldErrors } from "~/lib/forms/form-errors";
 import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/schema";
-import { db } from "~/lib/db/db.server";
 import { can } from "~/lib/auth/permissions";
-import { saveConfig } from "~/lib/repo/builds.server";
+import { saveRig } from "~/lib/builds/builds.server";
 import { rigFromForm } from "~/lib/forms/rig-form";
 import type { Route } from "./+types/builds.$buildId.rig";
 
@@ -26,8 +25,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   const parsed = rigSchema.safeParse(rigFromForm(form));
   if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error), message: "Some fields need fixing; nothing was saved." }, { status: 400 });
   const expected = Number(form.get("version"));
-  const saved = await saveConfig(db(), v.workshop.id, b.id, { ...b.config, rig: parsed.data }, expected);
-  if (saved === null)
+  const saved = await saveRig(v, b, parsed.data, expected);
+  if (saved.kind === "invalid") return data({ ok: false as const, errors: saved.fieldErrors, message: saved.message }, { status: 422 });
+  if (saved.kind === "stale")
     return data(
       { ok: false as const, errors: {}, message: "Someone saved this build since you opened it. Reload to see their change; nothing was saved." },
       { status: 409 },

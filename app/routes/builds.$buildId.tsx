@@ -3,9 +3,11 @@ import { requireViewer } from "~/lib/auth/auth.server";
 import { STATUS_LABELS } from "~/lib/forms/build-forms";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { can } from "~/lib/auth/permissions";
+import { ErrorPage } from "~/components/ErrorPage";
+import { describeError, errorTitle } from "~/lib/web/errors";
 import type { Route } from "./+types/builds.$buildId";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.build.name ?? "Build"} · Hiltbench` }];
+export const meta: Route.MetaFunction = ({ data, error }) => [{ title: error ? errorTitle(error) : `${data?.build.name ?? "Build"} · Hiltbench` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
@@ -49,5 +51,21 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <Outlet />
       </div>
     </div>
+  );
+}
+
+/**
+ * A failure in the build or one of its sections: 404 (not this workshop's, or not this client's),
+ * 403 (the role does not allow it) or a server failure, with ways back that still work.
+ */
+export function ErrorBoundary({ error, params }: Route.ErrorBoundaryProps) {
+  return (
+    <ErrorPage
+      error={error}
+      back={[
+        { to: "/builds", label: "Back to builds" },
+        ...(params.buildId && describeError(error).status !== 404 ? [{ to: `/builds/${params.buildId}`, label: "This build's overview" }] : []),
+      ]}
+    />
   );
 }

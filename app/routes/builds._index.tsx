@@ -1,11 +1,9 @@
 import { Form, Link, useSearchParams } from "react-router";
 import { requireViewer } from "~/lib/auth/auth.server";
-import { db } from "~/lib/db/db.server";
 import { parseBuildQuery, STATUS_LABELS } from "~/lib/forms/build-forms";
 import { BUILD_STATUSES } from "~/lib/db/types";
 import { can } from "~/lib/auth/permissions";
-import { scopeFor } from "~/lib/auth/build-access.server";
-import { listBuilds } from "~/lib/repo/builds.server";
+import { buildsFor } from "~/lib/builds/builds.server";
 import type { Route } from "./+types/builds._index";
 
 export const meta: Route.MetaFunction = () => [{ title: "Builds · Hiltbench" }];
@@ -13,7 +11,7 @@ export const meta: Route.MetaFunction = () => [{ title: "Builds · Hiltbench" }]
 export async function loader({ request }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const query = parseBuildQuery(new URL(request.url));
-  const { rows, total } = await listBuilds(db(), scopeFor(v), query);
+  const { rows, total } = await buildsFor(v, query);
   return {
     query,
     total,

@@ -2,9 +2,7 @@ import { Form, redirect, useActionData } from "react-router";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { buildMetaSchema } from "~/lib/forms/build-forms";
 import { fieldErrors } from "~/lib/forms/form-errors";
-import { starterConfig } from "~/lib/config/starter";
-import { db } from "~/lib/db/db.server";
-import { createBuild, listClients } from "~/lib/repo/builds.server";
+import { clientsOf, createBuildFor } from "~/lib/builds/builds.server";
 import { data } from "react-router";
 import type { Route } from "./+types/builds.new";
 import { BuildMetaFields } from "~/components/BuildMetaFields";
@@ -13,20 +11,16 @@ export const meta: Route.MetaFunction = () => [{ title: "New build · Hiltbench"
 
 export async function loader({ request }: Route.LoaderArgs) {
   const v = await requireViewer(request, "create:build");
-  return { clients: await listClients(db(), v.workshop.id) };
+  return { clients: await clientsOf(v) };
 }
 
 export async function action({ request }: Route.ActionArgs) {
   const v = await requireViewer(request, "create:build");
   const parsed = buildMetaSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
-  const clients = await listClients(db(), v.workshop.id);
-  const meta = parsed.data;
-  if (meta.clientUserId && !clients.some((c) => c.id === meta.clientUserId))
-    return data({ errors: { clientUserId: "Choose a client account of this workshop." } }, { status: 400 });
-  const chosen = clients.find((c) => c.id === meta.clientUserId);
-  const { id } = await createBuild(db(), v.workshop.id, { ...meta, clientName: meta.clientName || chosen?.display_name || "" }, starterConfig());
-  throw redirect(`/builds/${id}`);
+  const r = await createBuildFor(v, parsed.data);
+  if (!r.ok) return data({ errors: r.errors }, { status: 400 });
+  throw redirect(`/builds/${r.id}`);
 }
 
 export default function NewBuild({ loaderData }: Route.ComponentProps) {

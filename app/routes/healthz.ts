@@ -1,8 +1,7 @@
 // Liveness for the start and test scripts (and a load balancer): the database answers.
-import { sql } from "kysely";
-import { db } from "~/lib/db/db.server";
+import { databaseAnswers } from "~/lib/db/db.server";
 
 export async function loader() {
-  await sql`SELECT 1`.execute(db());
+  await databaseAnswers();
   return new Response("ok", { headers: { "Content-Type": "text/plain" } });
 }

@@ -10,21 +10,21 @@ import { CodeFrame } from "~/components/templates/CodeFrame";
 import { CodeView } from "~/components/templates/CodeView";
 import { DeleteTemplate, type DeleteAnswer } from "~/components/templates/DeleteTemplate";
 import { VersionDiff, type CompareData } from "~/components/templates/VersionDiff";
+import { ErrorPage } from "~/components/ErrorPage";
 import { requireViewer } from "~/lib/auth/auth.server";
-import { scopeFor } from "~/lib/auth/build-access.server";
-import type { Config } from "~/lib/config/schema";
-import { db } from "~/lib/db/db.server";
-import { fail } from "~/lib/web/http.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { buildChoices } from "~/lib/builds/builds.server";
 import { can } from "~/lib/auth/permissions";
-import { getBuild, listBuilds } from "~/lib/repo/builds.server";
-import { deleteTemplate, describeDependents, getTemplate, getTemplateVersion, latestSources, listVersions, saveTemplateVersion, templateDependents, type TemplateDependents, recordedUses, usesOf } from "~/lib/repo/templates.server";
-import { BUILTIN_TEMPLATES, compileTemplate, type TemplateError } from "~/lib/template";
-import { diffVersions, parseCompare } from "~/lib/rendering/version-diff";
+import { compareVersions, deleteConfirmed, dependentsOf, openTemplate, partialsMovedOn, saveTemplateSource, workshopSources, workshopTemplate } from "~/lib/rendering/library.server";
 import { useDraftPreview } from "~/lib/rendering/preview";
-import { BUILTIN_VERSION, isBuiltinName, metaForBuild, partialsFrom } from "~/lib/rendering/render";
+import { metaForBuild } from "~/lib/rendering/render";
+import type { TemplateError } from "~/lib/template";
+import { readFormLimited } from "~/lib/web/body.server";
+import { errorTitle } from "~/lib/web/errors";
+import { fail } from "~/lib/web/http.server";
 import type { Route } from "./+types/templates.$templateId";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.template.name ?? "Template"} · Templates · Hiltbench` }];
+export const meta: Route.MetaFunction = ({ data, error }) => [{ title: error ? errorTitle(error) : `${data?.template.name ?? "Template"} · Templates · Hiltbench` }];
 
 /** A template's source is at most 256 K characters; the form around it stays under 1 MB. */
 const MAX_SAVE_BYTES = 1024 * 1024;
@@ -32,7 +32,6 @@ const MAX_SAVE_BYTES = 1024 * 1024;
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:templates");
   const url = new URL(request.url);
-  const ref = params.templateId;
   // The version picker's plain GET form (from, to) lands on the one address of a comparison.
   const pickedFrom = url.searchParams.get("from");
   const pickedTo = url.searchParams.get("to");
@@ -43,64 +42,23 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     to.set("compare", `${pickedFrom ?? ""}..${pickedTo ?? ""}`);
     throw redirect(`${url.pathname}?${to}`);
   }
-  let template: { id: string; name: string; kind: "builtin" | "workshop"; version: number; latest: number; source: string };
-  let versions: { version: number; createdAt: string; author: string | null }[] = [];
-  if (isBuiltinName(ref)) {
-    template = { id: ref, name: ref, kind: "builtin", version: BUILTIN_VERSION, latest: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] };
-  } else {
-    const t = await getTemplate(db(), v.workshop.id, ref);
-    if (!t) fail(404, "No template with this id in your workshop.");
-    const asked = url.searchParams.get("version");
-    const n = asked === null ? undefined : Number(asked);
-    if (n !== undefined && (!Number.isInteger(n) || n < 1)) fail(400, "'version' must be a whole number from 1.");
-    const row = await getTemplateVersion(db(), v.workshop.id, t.id, n);
-    if (!row) fail(404, `This template has no version ${n}.`);
-    const all = await listVersions(db(), v.workshop.id, t.id);
-    versions = all.map((x) => ({ version: x.version, createdAt: x.created_at.toISOString(), author: x.author }));
-    template = { id: t.id, name: t.name, kind: "workshop", version: row.version, latest: all[0]?.version ?? row.version, source: row.source };
-  }
-  // Templates this one uses that have moved on since its latest version was saved (which renders
-  // with the versions it recorded): a save, even of the same source, takes the newer ones in.
-  let newerPartials: { name: string; version: number; was: number | null }[] = [];
-  if (template.kind === "workshop" && template.version === template.latest) {
-    const recorded = await recordedUses(db(), v.workshop.id, template.id, template.version);
-    const now = await usesOf(db(), v.workshop.id, template.source);
-    newerPartials = Object.entries(now)
-      .filter(([name, u]) => recorded[name]?.id !== u.id || recorded[name]?.version !== u.version)
-      .map(([name, u]) => ({ name, version: u.version, was: recorded[name]?.id === u.id ? recorded[name].version : null }));
-  }
+  const { template, versions } = await openTemplate(v, params.templateId, url.searchParams.get("version"));
   const compareParam = url.searchParams.get("compare");
-  let compare: Omit<CompareData, "closeHref"> | null = null;
-  if (compareParam !== null) {
-    if (template.kind === "builtin") fail(400, "Built-in templates have a single version; there is nothing to compare.");
-    const pair = parseCompare(compareParam);
-    if (!pair) fail(400, `'compare' must be two version numbers like 1..2, not '${compareParam.slice(0, 40)}'.`);
-    const [a, b] = await Promise.all(pair.map((n) => getTemplateVersion(db(), v.workshop.id, template.id, n)));
-    const absent = pair.filter((_, i) => ![a, b][i]);
-    if (absent.length) fail(404, `This template has no version ${absent[0]}; its versions are 1 to ${template.latest}.`);
-    compare = {
-      from: a!.version,
-      to: b!.version,
-      diff: diffVersions(template.name, a!, b!),
-      patchHref: `/templates/${template.id}/compare.patch?compare=${a!.version}..${b!.version}`,
-    };
-  }
+  const compare: Omit<CompareData, "closeHref"> | null = compareParam === null ? null : await compareVersions(v, template, compareParam);
   const canEdit = template.kind === "workshop" && can(v.role, "edit:template");
-  const dependents: TemplateDependents | null = canEdit ? await templateDependents(db(), v.workshop.id, template.id, template.name) : null;
-  const builds = (await listBuilds(db(), scopeFor(v), { sort: "name", dir: "asc", page: 1, perPage: 100 })).rows.map((b) => ({ id: b.id, name: b.name }));
+  const builds = await buildChoices(v);
   const buildId = url.searchParams.get("build") ?? builds[0]?.id;
-  const b = buildId ? await getBuild(db(), scopeFor(v), buildId) : undefined;
-  if (buildId && !b) fail(404, "No build with this id in your workshop.");
+  const b = buildId ? await loadBuildFor(v, buildId) : null;
   return {
     template,
     versions,
-    partials: await latestSources(db(), v.workshop.id),
+    partials: await workshopSources(v),
     builds,
-    build: b ? { id: b.id, name: b.name, client_name: b.client_name, config_saved_at: b.config_saved_at.toISOString(), config_version: b.config_version, config: b.config as Config } : null,
+    build: b ? { id: b.id, name: b.name, client_name: b.client_name, config_saved_at: b.config_saved_at.toISOString(), config_version: b.config_version, config: b.config } : null,
     canEdit,
     compare,
-    dependents,
-    newerPartials,
+    dependents: canEdit ? await dependentsOf(v, template) : null,
+    newerPartials: await partialsMovedOn(v, template),
   };
 }
 
@@ -108,18 +66,12 @@ type SaveAnswer = { ok: true; version: number } | { ok: false; message: string; 
 
 export async function action({ request, params }: Route.ActionArgs) {
   const v = await requireViewer(request, "edit:template");
-  if (isBuiltinName(params.templateId)) fail(403, "Built-in templates are read-only and cannot be deleted; create a template from one to change it.");
-  const t = await getTemplate(db(), v.workshop.id, params.templateId);
-  if (!t) fail(404, "No template with this id in your workshop.");
-  const declared = Number(request.headers.get("Content-Length"));
-  if (Number.isFinite(declared) && declared > MAX_SAVE_BYTES) fail(413, "The template is larger than 1 MB; nothing was saved.");
-  const form = await request.formData();
+  const t = await workshopTemplate(v, params.templateId, 403, "Built-in templates are read-only and cannot be deleted; create a template from one to change it.");
+  const form = await readFormLimited(request, MAX_SAVE_BYTES, "The template is larger than 1 MB; nothing was saved.");
   const intent = form.get("intent") ?? "save";
   if (intent === "delete") {
-    if (form.get("confirm") !== t.name) return data<DeleteAnswer>({ intent: "delete", ok: false, message: `Type the template's name, ${t.name}, to confirm; nothing was deleted.` }, { status: 400 });
-    const r = await deleteTemplate(db(), v.workshop.id, t.id);
-    if (r.kind === "missing") fail(404, "No template with this id in your workshop.");
-    if (r.kind === "in-use") return data<DeleteAnswer>({ intent: "delete", ok: false, message: describeDependents(r.name, r.dependents), dependents: r.dependents }, { status: 409 });
+    const r = await deleteConfirmed(v, t, form.get("confirm"));
+    if (r.kind === "refused") return data<DeleteAnswer>({ intent: "delete", ok: false, message: r.message, ...(r.dependents ? { dependents: r.dependents } : {}) }, { status: r.status });
     return redirect(`/templates?deleted=${encodeURIComponent(r.name)}&versions=${r.versions}`);
   }
   if (intent !== "save") fail(400, "Unknown action: use intent 'save' or 'delete'.");
@@ -127,19 +79,14 @@ export async function action({ request, params }: Route.ActionArgs) {
   const latest = Number(form.get("latest"));
   if (typeof source !== "string") return data<SaveAnswer>({ ok: false, message: "The form has no template source." }, { status: 400 });
   if (!Number.isInteger(latest) || latest < 1) return data<SaveAnswer>({ ok: false, message: "The form must say which version the editor was opened at." }, { status: 400 });
-  // This template's own name means the source being saved: it is about to be the latest, and a
-  // cycle through another template (this → other → this) only shows when it is.
-  const partials = { ...(await latestSources(db(), v.workshop.id)), [t.name]: source };
-  const compiled = compileTemplate(source, { partials: partialsFrom(partials) });
-  if (!compiled.ok) {
-    const errors = compiled.errors.filter((e) => e.severity === "error");
-    return data<SaveAnswer>({ ok: false, message: `The template has ${errors.length} error${errors.length === 1 ? "" : "s"}; nothing was saved.`, errors }, { status: 422 });
-  }
-  const r = await saveTemplateVersion(db(), v.workshop.id, t.id, v.user.id, source, latest);
-  if (r.kind === "missing") fail(404, "No template with this id in your workshop.");
-  if (r.kind === "stale")
-    return data<SaveAnswer>({ ok: false, message: `Someone saved version ${r.latest} since you opened version ${latest}; nothing was saved. Reload to see it and reapply your change.` }, { status: 409 });
-  return data<SaveAnswer>({ ok: true, version: r.version });
+  const r = await saveTemplateSource(v, t, source, latest);
+  if (!r.ok) return data<SaveAnswer>({ ok: false, message: r.message, ...(r.errors ? { errors: r.errors } : {}) }, { status: r.status });
+  return data<SaveAnswer>(r);
+}
+
+/** 404 (no such template or version), 403 (read-only) or a server failure, with a way back to the list. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <ErrorPage error={error} back={[{ to: "/templates", label: "Back to templates" }]} />;
 }
 
 function toCm(errors: TemplateError[]): CmDiagnostic[] {

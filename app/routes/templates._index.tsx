@@ -2,16 +2,16 @@
 // start a new one from a copy of any of them. After a delete the list says what went.
 import { data, Form, Link, redirect, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
+import { ErrorPage } from "~/components/ErrorPage";
 import { requireViewer } from "~/lib/auth/auth.server";
-import { db } from "~/lib/db/db.server";
 import { can } from "~/lib/auth/permissions";
-import { createTemplate, getTemplateVersion, listTemplates } from "~/lib/repo/templates.server";
-import { BUILTIN_TEMPLATES } from "~/lib/template";
-import { BUILTIN_NAMES, isBuiltinName } from "~/lib/rendering/render";
-import type { Route } from "./+types/templates._index";
 import { fieldErrors } from "~/lib/forms/form-errors";
+import { createTemplateFrom, workshopTemplates } from "~/lib/rendering/library.server";
+import { BUILTIN_NAMES, BUILTIN_TEMPLATES } from "~/lib/template";
+import { errorTitle } from "~/lib/web/errors";
+import type { Route } from "./+types/templates._index";
 
-export const meta: Route.MetaFunction = () => [{ title: "Templates · Hiltbench" }];
+export const meta: Route.MetaFunction = ({ error }) => [{ title: error ? errorTitle(error) : "Templates · Hiltbench" }];
 
 const BUILTIN_NOTES: Record<string, string> = {
   "generic-header": "Hiltbench's C header; reads back into the model. Builds use it unless they pin another.",
@@ -21,7 +21,7 @@ const BUILTIN_NOTES: Record<string, string> = {
 
 export async function loader({ request }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:templates");
-  const mine = await listTemplates(db(), v.workshop.id);
+  const mine = await workshopTemplates(v);
   // `?deleted=name&versions=n` comes from the delete's redirect; it only reads as done while
   // the workshop really has no template of that name.
   const url = new URL(request.url);
@@ -56,18 +56,14 @@ export async function action({ request }: Route.ActionArgs) {
   if (!parsed.success) {
     return data<ActionAnswer>({ fieldErrors: fieldErrors(parsed.error) }, { status: 400 });
   }
-  const { name, from } = parsed.data;
-  if (isBuiltinName(name)) return data<ActionAnswer>({ fieldErrors: { name: `'${name}' is a built-in template's name; choose another.` } }, { status: 400 });
-  let source: string;
-  if (isBuiltinName(from)) source = BUILTIN_TEMPLATES[from];
-  else {
-    const t = await getTemplateVersion(db(), v.workshop.id, from);
-    if (!t) return data<ActionAnswer>({ fieldErrors: { from: "No such template in your workshop." } }, { status: 400 });
-    source = t.source;
-  }
-  const r = await createTemplate(db(), v.workshop.id, v.user.id, name, source);
-  if (r.kind === "taken") return data<ActionAnswer>({ fieldErrors: { name: `Your workshop already has a template named '${name}'.` } }, { status: 400 });
+  const r = await createTemplateFrom(v, parsed.data.name, parsed.data.from);
+  if (r.kind === "refused") return data<ActionAnswer>({ fieldErrors: { [r.field]: r.message } }, { status: 400 });
   return redirect(`/templates/${r.id}`);
+}
+
+/** 403 for a role without templates, or a server failure, with a way back. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <ErrorPage error={error} back={[{ to: "/builds", label: "Back to builds" }]} />;
 }
 
 export default function TemplatesPage({ loaderData }: Route.ComponentProps) {

@@ -2,11 +2,10 @@ import { data, Form, useActionData } from "react-router";
 import { z } from "zod";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { fieldErrors } from "~/lib/forms/form-errors";
-import { db } from "~/lib/db/db.server";
 import { ROLES } from "~/lib/db/types";
 import { fail } from "~/lib/web/http.server";
 import { can } from "~/lib/auth/permissions";
-import { cancelInvitation, changeRole, invite, listInvitations, listMembers, removeMember } from "~/lib/repo/users.server";
+import { cancelInvitationOf, changeRoleOf, invitationsOf, inviteTo, membersOf, removeMemberOf } from "~/lib/auth/members.server";
 import type { Route } from "./+types/workshop";
 
 export const meta: Route.MetaFunction = () => [{ title: "Workshop · Hiltbench" }];
@@ -18,8 +17,8 @@ export async function loader({ request }: Route.LoaderArgs) {
     workshop: v.workshop.name,
     me: v.user.id,
     manage,
-    members: (await listMembers(db(), v.workshop.id)).map((m) => ({ ...m, created_at: m.created_at.toISOString() })),
-    invitations: manage ? (await listInvitations(db(), v.workshop.id)).map((i) => ({ id: i.id, github_login: i.github_login, email: i.email, role: i.role })) : [],
+    members: (await membersOf(v)).map((m) => ({ ...m, created_at: m.created_at.toISOString() })),
+    invitations: manage ? (await invitationsOf(v)).map((i) => ({ id: i.id, github_login: i.github_login, email: i.email, role: i.role })) : [],
   };
 }
 
@@ -47,7 +46,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (intent === "invite") {
     const parsed = inviteSchema.safeParse(Object.fromEntries(form));
     if (!parsed.success) return data({ intent, errors: fieldErrors(parsed.error), message: null }, { status: 400 });
-    const r = await invite(db(), v.workshop.id, v.user.id, parsed.data, parsed.data.role);
+    const r = await inviteTo(v, parsed.data, parsed.data.role);
     if (!r.ok) return data({ intent, errors: { target: r.message }, message: null }, { status: r.status });
     return { intent, errors: {}, message: "Invitation recorded. They join when they first sign in." };
   }
@@ -59,15 +58,15 @@ export async function action({ request }: Route.ActionArgs) {
         ? await (async () => {
             const role = z.enum(ROLES).safeParse(form.get("role"));
             if (!role.success) fail(400, "Choose a role from the list.");
-            return changeRole(db(), v.workshop.id, userId.data, role.data);
+            return changeRoleOf(v, userId.data, role.data);
           })()
-        : await removeMember(db(), v.workshop.id, userId.data);
+        : await removeMemberOf(v, userId.data);
     if (!r.ok) return data({ intent, errors: { member: r.message }, message: null }, { status: r.status });
     return { intent, errors: {}, message: intent === "role" ? "Role changed." : "Member removed." };
   }
   if (intent === "cancel-invite") {
     const id = uuid.safeParse(form.get("invitationId"));
-    if (!id.success || !(await cancelInvitation(db(), v.workshop.id, id.data))) fail(404, "No such invitation.");
+    if (!id.success || !(await cancelInvitationOf(v, id.data))) fail(404, "No such invitation.");
     return { intent, errors: {}, message: "Invitation cancelled." };
   }
   fail(400, "Unknown action.");

@@ -43,6 +43,27 @@ describe.runIf(hasDatabase)("replacing a build's config (PostgreSQL)", () => {
     expect(await row()).toEqual(before);
   });
 
+  it("refuses a partial edit (the rig form) only for errors it adds, never for ones the config already had", async () => {
+    const { validateConfig } = await import("~/lib/checks/validate");
+    const before = await row();
+    // A config still being put together: no presets yet, which is an error of its own.
+    const unfinished = { ...demoConfig(), presets: [] };
+    const known = validateConfig(unfinished).diagnostics;
+    expect(known.some((d) => d.code === "no-presets" && d.severity === "error")).toBe(true);
+    const worse = structuredClone(unfinished);
+    worse.rig.channels[0].pin = 99;
+    const refused = await storeCheckedConfigIn(db, ws, id, worse, before.config_version, { known });
+    expect(refused).toMatchObject({ kind: "invalid", message: "The config has 1 error; nothing was stored.", errors: [expect.objectContaining({ code: "unknown-data-pin", path: "rig.channels[0].pin" })] });
+    expect(await row()).toEqual(before);
+    // Without `known` (a whole-config save) the known error refuses too.
+    expect(await storeCheckedConfigIn(db, ws, id, unfinished, before.config_version)).toMatchObject({ kind: "invalid" });
+    expect(await row()).toEqual(before);
+    const saved = await storeCheckedConfigIn(db, ws, id, unfinished, before.config_version, { known });
+    expect(saved).toMatchObject({ kind: "saved", version: before.config_version + 1 });
+    // Put Kestrel back for the next test.
+    await storeCheckedConfigIn(db, ws, id, before.config, before.config_version + 1);
+  });
+
   it("does not touch another workshop's build", async () => {
     const before = await row();
     const other = "00000000-0000-4000-8000-000000000000";

@@ -5,18 +5,13 @@ import { useEffect, useRef, useState } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Config } from "~/lib/config/schema";
 import { SafetyCautions } from "~/components/SafetyCautions";
+import { PowerFigures } from "~/components/power/PowerFigures";
 import { presetPowerFigures, type PresetPowerFigures } from "~/lib/power/figures";
+import { formatAmps, type PowerView } from "~/lib/power/labels";
+import { PEAK_WARN_FRACTION, percent } from "~/lib/power/thresholds";
 import type { PowerReply, PowerRequest } from "./power.worker";
-import { Figure } from "~/components/Figure";
 
 const SETTLE_MS = 350;
-
-function hours(h: number): string {
-  if (!Number.isFinite(h)) return "—";
-  const whole = Math.floor(h);
-  const min = Math.round((h - whole) * 60);
-  return `${whole} h ${String(min).padStart(2, "0")} min`;
-}
 
 /**
  * Figures for (config, preset) once edits settle, from a worker when the browser has one (the
@@ -78,35 +73,25 @@ export function PowerPanel({ config, presetId }: { config: Config; presetId: str
 
   const rating = config.rig.power.cellMaxContinuousAmps;
   const f = figures;
-  const over = f !== null && f.peakAmps > rating;
-  const near = f !== null && !over && f.peakAmps > rating * 0.8;
+  const view: PowerView | null = f && {
+    rig: { ...config.rig.power, brightnessCap: f.currentCap },
+    peakAmps: f.peakAmps,
+    peakWhere: `at ${(f.peakAtMs / 1000).toFixed(2)} s`,
+    typicalAmps: [f.meanAmps],
+    runtimeHours: [f.runtimeHours],
+    wireDropVolts: f.wireDropVolts,
+    suggestedCap: f.suggestedCap,
+  };
   return (
     <section className="card space-y-4" aria-labelledby="power-heading" data-testid="power-panel" data-computed-in={figures ? where : undefined}>
       <h2 id="power-heading" className="text-lg">
         Power for this preset
       </h2>
-      {f === null ? (
+      {f === null || view === null ? (
         <p className="text-sm text-iron-400">{problem ? `The current could not be worked out for this look (${problem}).` : "Working out the current…"}</p>
       ) : (
         <>
-          <dl className="grid grid-cols-2 gap-4 sm:grid-cols-3 lg:grid-cols-6">
-            <Figure label="Peak" value={`${f.peakAmps.toFixed(2)} A`} note={`at ${(f.peakAtMs / 1000).toFixed(2)} s · ${Math.round(f.ratingShare * 100)} % of the cell's ${rating} A`} tone={over ? "text-signal-error" : near ? "text-signal-warning" : ""} />
-            <Figure label="Mean" value={`${f.meanAmps.toFixed(2)} A`} note="over the sequence" />
-            <Figure label="Runtime" value={hours(f.runtimeHours)} note={`${config.rig.power.cellCapacityMah} mAh at the mean`} />
-            <Figure label="Wire drop at peak" value={`${f.wireDropVolts.toFixed(2)} V`} note={`${config.rig.power.wireGaugeAwg} AWG, ${config.rig.power.wireLengthMm} mm each way · ${(f.wireDropShare * 100).toFixed(1)} % of ${config.rig.power.cellNominalVolts} V`} tone={f.wireDropShare > 0.08 ? "text-signal-warning" : ""} />
-            <Figure label="Brightness cap" value={`${Math.round(f.currentCap * 100)} %`} note="set on the rig" />
-            <Figure
-              label="Highest safe cap"
-              value={`${Math.round(f.suggestedCap * 100)} %`}
-              note="keeps every frame under 80 % of the cell's continuous rating"
-              tone={f.suggestedCap < f.currentCap ? "text-signal-warning" : "text-signal-ok"}
-            />
-          </dl>
-          {f.suggestedCap < f.currentCap ? (
-            <p className="text-sm text-signal-warning" role="status">
-              Lower the rig's brightness cap to {Math.round(f.suggestedCap * 100)} % or less, or fit a cell with a higher continuous rating.
-            </p>
-          ) : null}
+          <PowerFigures view={view} />
           <figure>
             <div className="h-52 w-full" aria-hidden="true">
               {mounted ? (
@@ -121,7 +106,7 @@ export function PowerPanel({ config, presetId }: { config: Config; presetId: str
                       labelFormatter={(l) => `${Number(l).toFixed(2)} s`}
                     />
                     <ReferenceLine y={rating} stroke="#ff5d5d" strokeDasharray="4 3" label={{ value: "cell rating", fill: "#ff5d5d", fontSize: 10, position: "insideTopRight" }} />
-                    <ReferenceLine y={rating * 0.8} stroke="#f5b93a" strokeDasharray="2 3" label={{ value: "80 %", fill: "#f5b93a", fontSize: 10, position: "insideBottomRight" }} />
+                    <ReferenceLine y={rating * PEAK_WARN_FRACTION} stroke="#f5b93a" strokeDasharray="2 3" label={{ value: percent(PEAK_WARN_FRACTION), fill: "#f5b93a", fontSize: 10, position: "insideBottomRight" }} />
                     <Line type="stepAfter" dataKey="amps" stroke="#f0602a" dot={false} strokeWidth={1.5} isAnimationActive={false} />
                   </LineChart>
                 </ResponsiveContainer>
@@ -129,7 +114,7 @@ export function PowerPanel({ config, presetId }: { config: Config; presetId: str
             </div>
             <figcaption className="mt-1 text-xs text-iron-400">
               Cell current over the demonstration sequence (ignition at 0 s, clash 1.5 s, blast 2.5 s, lockup 3.5–5.5 s, retraction 6.5 s): every channel's rendered
-              frames, sampled every {Math.round(f.stepMs)} ms, plus the board and the speaker. Peak {f.peakAmps.toFixed(2)} A, mean {f.meanAmps.toFixed(2)} A.
+              frames, sampled every {Math.round(f.stepMs)} ms, plus the board and the speaker. Peak {formatAmps(f.peakAmps)}, mean {formatAmps(f.meanAmps)}.
             </figcaption>
           </figure>
         </>

@@ -121,6 +121,11 @@ export async function requireViewer(request: Request, permission?: Permission): 
     viewer = await viewerFromUserId(userId, "session");
   }
   if (!viewer) fail(403, "You are signed in but not a member of any workshop yet. Ask a workshop owner to invite you.");
-  if (permission && !can(viewer.role, permission)) fail(403, `Your role (${viewer.role}) does not allow this.`);
+  if (permission) requirePermission(viewer, permission);
   return viewer;
+}
+
+/** For an action whose permission depends on what the form asks (after `requireViewer` guarded the route): 403 without it. */
+export function requirePermission(v: Viewer, permission: Permission): void {
+  if (!can(v.role, permission)) fail(403, `Your role (${v.role}) does not allow this.`);
 }

@@ -26,6 +26,14 @@ export function can(role: Role, permission: Permission): boolean {
   return table[role].has(permission);
 }
 
+/**
+ * What each form action on a build's Render view needs: reading a header back only looks at it
+ * (anyone who sees the build); making it the build's config or pinning a template changes the build.
+ */
+export const RENDER_VIEW_ACTIONS = { read: "view:builds", apply: "edit:build", pin: "edit:build" } as const satisfies Record<string, Permission>;
+export type RenderViewAction = keyof typeof RENDER_VIEW_ACTIONS;
+export const isRenderViewAction = (s: unknown): s is RenderViewAction => typeof s === "string" && Object.hasOwn(RENDER_VIEW_ACTIONS, s);
+
 /** Clients see only the builds they are the client of; everyone else sees the workshop's. */
 export function seesOnlyOwnBuilds(role: Role): boolean {
   return role === "client";

@@ -4,27 +4,42 @@ import type { Kysely } from "kysely";
 import type { Viewer } from "../auth/auth.server";
 import type { Database } from "../db/types";
 import { db as appDb } from "../db/db.server";
-import { hasErrors, type Diagnostic } from "./diagnostics";
+import type { Diagnostic } from "./diagnostics";
 import { powerModeFor } from "./power-mode";
 import { validateConfig } from "./validate";
-import { saveConfig } from "../repo/builds.server";
+import { currentConfigVersion, saveConfig } from "../repo/builds.server";
 
 export type StoreResult =
   | { kind: "saved"; version: number; diagnostics: Diagnostic[] }
-  | { kind: "invalid"; message: string; diagnostics: Diagnostic[] }
+  /** `errors`: the errors that refused it (all of them, unless the save named some as already known). */
+  | { kind: "invalid"; message: string; diagnostics: Diagnostic[]; errors: Diagnostic[] }
   | { kind: "stale"; message: string; currentVersion: number | null };
 
+export type StoreOptions = {
+  /**
+   * Errors the stored config already has (same code and path). A save that edits one part of a
+   * config (the rig form) is refused only for errors it adds: a build still being configured
+   * (no presets yet) keeps its rig editable. Whole-config saves pass nothing: any error refuses.
+   */
+  known?: readonly Diagnostic[];
+};
+
+const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.path === b.path;
+
 /** The same with the database passed in (tests, transactions). */
-export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: string, buildId: string, input: unknown, expectedVersion: number): Promise<StoreResult> {
+export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: string, buildId: string, input: unknown, expectedVersion: number, opts: StoreOptions = {}): Promise<StoreResult> {
   const { config, diagnostics } = validateConfig(input, { power: powerModeFor(input) });
-  if (!config || hasErrors(diagnostics)) {
-    const n = diagnostics.filter((d) => d.severity === "error").length;
-    return { kind: "invalid", message: `The config has ${n} error${n === 1 ? "" : "s"}; nothing was stored.`, diagnostics };
+  const known = opts.known ?? [];
+  let errors = diagnostics.filter((d) => d.severity === "error" && !known.some((k) => sameDiagnostic(k, d)));
+  // A config without the model's shape is never stored, whatever was known before.
+  if (!config && errors.length === 0) errors = diagnostics.filter((d) => d.severity === "error");
+  if (!config || errors.length > 0) {
+    const n = errors.length;
+    return { kind: "invalid", message: `The config has ${n} error${n === 1 ? "" : "s"}; nothing was stored.`, diagnostics, errors };
   }
   const version = await saveConfig(db, workshopId, buildId, config, expectedVersion);
   if (version === null) {
-    const row = await db.selectFrom("builds").select("config_version").where("id", "=", buildId).where("workshop_id", "=", workshopId).executeTakeFirst();
-    const current = row?.config_version ?? null;
+    const current = await currentConfigVersion(db, workshopId, buildId);
     return {
       kind: "stale",
       message: `The config was changed since version ${expectedVersion} was read${current !== null ? ` (it is now version ${current})` : ""}; nothing was stored. Read it again and reapply your change.`,
@@ -35,6 +50,6 @@ export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: str
 }
 
 /** Replace the build's config as this viewer's workshop. */
-export function storeCheckedConfig(v: Viewer, buildId: string, input: unknown, expectedVersion: number): Promise<StoreResult> {
-  return storeCheckedConfigIn(appDb(), v.workshop.id, buildId, input, expectedVersion);
+export function storeCheckedConfig(v: Viewer, buildId: string, input: unknown, expectedVersion: number, opts: StoreOptions = {}): Promise<StoreResult> {
+  return storeCheckedConfigIn(appDb(), v.workshop.id, buildId, input, expectedVersion, opts);
 }

@@ -61,3 +61,21 @@ export function rigFromForm(form: FormData): Rig {
     },
   };
 }
+
+/**
+ * Validator errors as the rig form shows them: those under `rig` keyed by the form's field name
+ * (`rig.channels[0].pin` → `channels.0.pin`), the rest (presets that lose their channel, say) apart.
+ */
+export function rigErrorsForForm(errors: readonly { path: string; message: string }[]): { fieldErrors: Record<string, string>; elsewhere: { path: string; message: string }[] } {
+  const fieldErrors: Record<string, string> = {};
+  const elsewhere: { path: string; message: string }[] = [];
+  for (const d of errors) {
+    if (!d.path.startsWith("rig.")) {
+      elsewhere.push(d);
+      continue;
+    }
+    const key = d.path.slice(4).replace(/\[(\d+)\]/g, ".$1");
+    fieldErrors[key] ??= d.message;
+  }
+  return { fieldErrors, elsewhere };
+}

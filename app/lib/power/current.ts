@@ -1,5 +1,6 @@
 // Current drawn from the cell: LEDs from a frame of pixel bytes, the board at rest, the
 // amplifier, and what that means for runtime, energy and a safe brightness cap.
+import { CAP_MARGIN } from "./thresholds";
 import type { Board, Channel, Power, Speaker } from "../config/schema";
 
 /**
@@ -61,8 +62,6 @@ export function runtimeHoursAtWatts(energy: number, loadWatts: number, efficienc
   return (energy * efficiency) / loadWatts;
 }
 
-/** Share of the cell's continuous rating kept in reserve when suggesting a cap. */
-export const CAP_MARGIN = 0.2;
 
 /**
  * The highest brightness cap (0–1, rounded down to 0.01) that keeps the peak under the cell's

@@ -4,7 +4,8 @@
 import type { Config } from "~/lib/config/schema";
 import { audioAt, sequenceCurrent } from "~/lib/power/sequence";
 import { bladeStateAt, DEMO_SEQUENCE, type BladeState } from "~/lib/effects/timeline";
-import { boardIdleMilliamps, CAP_MARGIN, runtimeHours } from "~/lib/power/current";
+import { boardIdleMilliamps, runtimeHours } from "~/lib/power/current";
+import { CAP_MARGIN } from "~/lib/power/thresholds";
 import { wireDropVolts } from "~/lib/power/wire";
 
 export interface PresetPowerFigures {

@@ -2,3 +2,5 @@
 // file can be validated. Shares nothing with the template language: it reads C, not templates.
 export { readHeader } from "./readback";
 export type { ReadError } from "./readback";
+export { readAndCheck, summarize } from "./check";
+export type { HeaderCheck } from "./check";

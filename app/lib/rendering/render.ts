@@ -1,14 +1,7 @@
 // Compile and render in one call with the workshop's templates as partials — shared by the
 // server (Render view, API) and the browser (template editor preview). Pure: no clock, no I/O.
 import type { Config } from "../config/schema";
-import { BUILTIN_TEMPLATES, builtinPartials, compileTemplate, renderTemplate, type Limits, type RenderMeta, type TemplateError } from "../template";
-
-export const BUILTIN_NAMES = Object.keys(BUILTIN_TEMPLATES) as (keyof typeof BUILTIN_TEMPLATES)[];
-export type BuiltinName = (typeof BUILTIN_NAMES)[number];
-export const isBuiltinName = (s: string): s is BuiltinName => Object.hasOwn(BUILTIN_TEMPLATES, s);
-
-/** Built-ins have no saved versions; they render as version 1. */
-export const BUILTIN_VERSION = 1;
+import { builtinPartials, compileTemplate, renderTemplate, type Limits, type RenderMeta, type TemplateError } from "../template";
 
 /** The partial resolver: the workshop's templates (latest versions) first, then the built-ins. */
 export function partialsFrom(sources: Record<string, string>): (name: string) => string | undefined {

@@ -1,31 +1,29 @@
-// Which template a request means (a built-in by name, a workshop template by id and version,
-// or posted source) and rendering a build through it. Failures are 4xx with a message.
+// Server renders, one way for every route (the Render view, POST /api/render and
+// GET /api/builds/:id/render): `chooseTemplate` decides which template a request means (a
+// built-in by name, a workshop template by id and version, posted source, or the build's pin),
+// and `renderBuildOrSource` renders a build's config or a posted one through it, entering the
+// worker pool once. Failures a person caused are 4xx with a message.
 import type { Viewer } from "../auth/auth.server";
+import { validateConfig } from "../checks/validate";
 import { db } from "../db/db.server";
-import { fail } from "../web/http.server";
 import type { TemplateUses } from "../db/types";
-import { BUILTIN_TEMPLATES, type Limits } from "../template";
-import { renderOffThread } from "./pool.server";
-import { BUILTIN_VERSION, isBuiltinName, metaForBuild, type RenderOutcome } from "./render";
 import { getTemplateVersion, latestSources, sourcesForVersion } from "../repo/templates.server";
 import { isUuid } from "../repo/builds.server";
+import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, DEFAULT_BUILTIN, isBuiltinName, type Limits } from "../template";
+import { fail } from "../web/http.server";
+import { renderOffThread } from "./pool.server";
+import { metaForBuild, type RenderOutcome } from "./render";
 
 export type ResolvedTemplate = { kind: "builtin" | "workshop" | "source"; id: string | null; name: string; version: number; source: string };
 
-/** A template reference: a built-in's name or a workshop template's id (latest version unless given). */
-export async function resolveTemplate(v: Viewer, ref: string, version?: number): Promise<ResolvedTemplate> {
-  if (isBuiltinName(ref)) return { kind: "builtin", id: null, name: ref, version: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] };
-  if (!isUuid(ref)) fail(404, `No template '${ref.slice(0, 80)}': use a built-in (${Object.keys(BUILTIN_TEMPLATES).join(", ")}) or a template id of your workshop.`);
-  const row = await getTemplateVersion(db(), v.workshop.id, ref, version);
-  if (!row) fail(404, version === undefined ? "No template with this id in your workshop." : `This template has no version ${version}.`);
-  return { kind: "workshop", id: row.id, name: row.name, version: row.version, source: row.source };
-}
+/** What a request asks to render with; `null` means the build's own template. */
+export type TemplateAsk = { id: string; version?: number } | { source: string } | { builtin: string };
 
-/** The template a build renders with when none is asked for: its pin, or the generic header. */
-export async function pinnedTemplate(v: Viewer, b: { pinned_template_id: string | null; pinned_template_version: number | null }): Promise<ResolvedTemplate> {
-  if (b.pinned_template_id && b.pinned_template_version !== null) return resolveTemplate(v, b.pinned_template_id, b.pinned_template_version);
-  return resolveTemplate(v, "generic-header");
-}
+/** The pin as a build row carries it. */
+export type BuildPin = { pinned_template_id: string | null; pinned_template_version: number | null };
+
+/** A build as far as rendering needs it. */
+export type RenderableBuild = BuildPin & { name: string; client_name: string; config_saved_at: Date; config_version: number; config: unknown };
 
 /**
  * Server renders (the API and the Render view) get a shorter clock than the editor's preview in
@@ -33,14 +31,45 @@ export async function pinnedTemplate(v: Viewer, b: { pinned_template_id: string 
  */
 export const API_LIMITS: Partial<Limits> = { maxMillis: 500 };
 
-export async function renderBuildWith(
-  v: Viewer,
-  b: { name: string; client_name: string; config_saved_at: Date; config_version: number; config: unknown },
-  t: ResolvedTemplate,
-  limits?: Partial<Limits>,
-): Promise<RenderOutcome & { uses: TemplateUses }> {
-  const { sources, uses } = await partialsFor(v, t);
-  return { ...(await renderOffThread(t.source, b.config as never, metaForBuild(b, t), { partials: sources, limits })), uses };
+/** A template reference: a built-in's name or a workshop template's id (latest version unless given). */
+export async function resolveTemplate(v: Viewer, ref: string, version?: number): Promise<ResolvedTemplate> {
+  if (isBuiltinName(ref)) return { kind: "builtin", id: null, name: ref, version: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] };
+  if (!isUuid(ref)) fail(404, `No template '${ref.slice(0, 80)}': use a built-in (${BUILTIN_NAMES.join(", ")}) or a template id of your workshop.`);
+  const row = await getTemplateVersion(db(), v.workshop.id, ref, version);
+  if (!row) fail(404, version === undefined ? "No template with this id in your workshop." : `This template has no version ${version}.`);
+  return { kind: "workshop", id: row.id, name: row.name, version: row.version, source: row.source };
+}
+
+/** The reference a build's own template goes by: its pinned template's id, or the default built-in's name. */
+export function pinRef(b: BuildPin): string {
+  return b.pinned_template_id ?? DEFAULT_BUILTIN;
+}
+
+/** The template a build renders with when none is asked for: its pin, or the default built-in. */
+export async function pinnedTemplate(v: Viewer, b: BuildPin): Promise<ResolvedTemplate> {
+  if (b.pinned_template_id && b.pinned_template_version !== null) return resolveTemplate(v, b.pinned_template_id, b.pinned_template_version);
+  return resolveTemplate(v, DEFAULT_BUILTIN);
+}
+
+/**
+ * The template a render request means. With a build: no ask, or its pinned template asked for
+ * without a version, is the build's pin at its pinned version (not the latest), so every render
+ * route shows a build the same bytes. `pinned` passes a pin already resolved (the Render view shows it).
+ */
+export async function chooseTemplate(v: Viewer, ask: TemplateAsk | null, build?: BuildPin, pinned?: ResolvedTemplate): Promise<ResolvedTemplate> {
+  if (ask && "source" in ask) return { kind: "source", id: null, name: "posted", version: BUILTIN_VERSION, source: ask.source };
+  if (ask && "builtin" in ask) {
+    if (!isBuiltinName(ask.builtin)) fail(404, `No built-in template '${ask.builtin.slice(0, 80)}'.`);
+    return resolveTemplate(v, ask.builtin);
+  }
+  if (build && (!ask || (ask.version === undefined && ask.id === pinRef(build)))) return pinned ?? pinnedTemplate(v, build);
+  if (!ask) fail(400, "Say which template to render with.");
+  return resolveTemplate(v, ask.id, ask.version);
+}
+
+/** The same for a build, from a page's or the API's `?template=&version=`. */
+export function chooseTemplateForBuild(v: Viewer, b: BuildPin, ref: string | null, version?: number, pinned?: ResolvedTemplate): Promise<ResolvedTemplate> {
+  return chooseTemplate(v, ref ? { id: ref, version } : null, b, pinned);
 }
 
 /**
@@ -61,4 +90,42 @@ export function apiErrors(r: Extract<RenderOutcome, { ok: false }>, limits: Part
     line: e.line,
     column: e.column,
   }));
+}
+
+export type RenderError = ReturnType<typeof apiErrors>[number];
+/** A posted config without the model's shape: the same 422 shape as a template error, `path` naming the field. */
+export type ConfigError = { stage: "config"; message: string; line: null; column: null; path: string };
+
+export type Rendered = { kind: "rendered"; output: string; target: "c" | "text"; uses: TemplateUses };
+export type RenderFailed = { kind: "failed"; errors: RenderError[]; uses: TemplateUses };
+export type BadConfig = { kind: "bad-config"; message: string; errors: ConfigError[] };
+
+/** Renders a build's config, or a posted config (checked against the model first), through `t`. */
+export async function renderBuildOrSource(v: Viewer, subject: { build: RenderableBuild }, t: ResolvedTemplate, limits?: Partial<Limits>): Promise<Rendered | RenderFailed>;
+export async function renderBuildOrSource(v: Viewer, subject: { build: RenderableBuild } | { config: unknown }, t: ResolvedTemplate, limits?: Partial<Limits>): Promise<Rendered | RenderFailed | BadConfig>;
+export async function renderBuildOrSource(
+  v: Viewer,
+  subject: { build: RenderableBuild } | { config: unknown },
+  t: ResolvedTemplate,
+  limits: Partial<Limits> = API_LIMITS,
+): Promise<Rendered | RenderFailed | BadConfig> {
+  let build: { name: string; client_name: string; config_saved_at: Date; config_version?: number };
+  let config: unknown;
+  if ("build" in subject) {
+    build = subject.build;
+    config = subject.build.config;
+  } else {
+    const checked = validateConfig(subject.config);
+    if (!checked.config) {
+      const errors = checked.diagnostics
+        .filter((d) => d.severity === "error")
+        .map((d): ConfigError => ({ stage: "config", message: d.message, line: null, column: null, path: d.path }));
+      return { kind: "bad-config", message: "The config does not have the model's shape; fix it before rendering.", errors };
+    }
+    config = checked.config;
+    build = { name: "Posted config", client_name: "", config_saved_at: new Date(0) };
+  }
+  const { sources, uses } = await partialsFor(v, t);
+  const r = await renderOffThread(t.source, config as never, metaForBuild(build, t), { partials: sources, limits });
+  return r.ok ? { kind: "rendered", output: r.output, target: r.target, uses } : { kind: "failed", errors: apiErrors(r, limits), uses };
 }

@@ -1,6 +1,6 @@
 import { applyPatch } from "diff";
 import { describe, expect, it } from "vitest";
-import { diffVersions, MAX_EDIT_LINES, parseCompare, patchFileName } from "./version-diff";
+import { diffVersions, MAX_EDIT_LINES, newerPartials, parseCompare, patchFileName } from "./version-diff";
 
 const v = (version: number, source: string) => ({ version, source });
 
@@ -47,5 +47,16 @@ describe("template version diffs", () => {
     expect(parseCompare("3..5")).toEqual([3, 5]);
     expect(parseCompare("5..3")).toEqual([5, 3]);
     for (const bad of ["3", "3..", "..5", "a..b", "0..2", "3...5", "-1..2", "1.5..2", "99999999999..1"]) expect(parseCompare(bad), bad).toBeNull();
+  });
+
+  it("names the partials that moved on since a version was saved, and what it renders with", () => {
+    const recorded = { blade: { id: "t1", version: 2 }, hilt: { id: "t2", version: 1 } };
+    const now = { blade: { id: "t1", version: 3 }, hilt: { id: "t2", version: 1 }, trim: { id: "t3", version: 1 }, core: { id: "t9", version: 4 } };
+    expect(newerPartials({ ...recorded, core: { id: "t4", version: 4 } }, now)).toEqual([
+      { name: "blade", version: 3, was: 2 },
+      { name: "trim", version: 1, was: null },
+      { name: "core", version: 4, was: null },
+    ]);
+    expect(newerPartials(recorded, recorded)).toEqual([]);
   });
 });

@@ -2,6 +2,7 @@
 // structuredPatch) turned into rows with old and new line numbers for a unified view, and the
 // same diff as a .patch file. Pure: no request, no database.
 import { FILE_HEADERS_ONLY, formatPatch, structuredPatch, type StructuredPatch } from "diff";
+import type { TemplateUses } from "../db/types";
 
 /** `noNewline`: the last line of its side, without a line break after it. */
 export type DiffRow = (
@@ -79,4 +80,17 @@ export function diffVersions(name: string, from: { version: number; source: stri
 export function patchFileName(name: string, from: number, to: number): string {
   const slug = name.toLowerCase().replace(/[^a-z0-9_-]+/g, "-").replace(/^-+|-+$/g, "") || "template";
   return `${slug}-v${from}-to-v${to}.patch`;
+}
+
+export type NewerPartial = { name: string; version: number; was: number | null };
+
+/**
+ * The templates a version uses that have moved on since it was saved: each `now` entry whose
+ * template or version differs from what was `recorded`; `was` is the recorded version when it is
+ * the same template (null when the name now means another template or was not used before).
+ */
+export function newerPartials(recorded: TemplateUses, now: TemplateUses): NewerPartial[] {
+  return Object.entries(now)
+    .filter(([name, u]) => recorded[name]?.id !== u.id || recorded[name]?.version !== u.version)
+    .map(([name, u]) => ({ name, version: u.version, was: recorded[name]?.id === u.id ? recorded[name].version : null }));
 }

@@ -118,6 +118,12 @@ export async function saveConfig(db: Db, workshopId: string, id: string, config:
   return r?.config_version ?? null;
 }
 
+/** The build's config version now (after a refused stale save, to say how far it moved); null when it is gone. */
+export async function currentConfigVersion(db: Db, workshopId: string, id: string): Promise<number | null> {
+  const row = await db.selectFrom("builds").select("config_version").where("id", "=", id).where("workshop_id", "=", workshopId).executeTakeFirst();
+  return row?.config_version ?? null;
+}
+
 export async function setArchived(db: Db, workshopId: string, id: string, archived: boolean) {
   await db
     .updateTable("builds")

@@ -16,3 +16,13 @@ export type BuiltinTemplateName = keyof typeof BUILTIN_TEMPLATES;
 export function builtinPartials(name: string): string | undefined {
   return Object.prototype.hasOwnProperty.call(BUILTIN_TEMPLATES, name) ? BUILTIN_TEMPLATES[name as BuiltinTemplateName] : undefined;
 }
+
+/** The built-ins' names, in the order pickers list them. */
+export const BUILTIN_NAMES = Object.keys(BUILTIN_TEMPLATES) as BuiltinTemplateName[];
+export const isBuiltinName = (s: string): s is BuiltinTemplateName => Object.hasOwn(BUILTIN_TEMPLATES, s);
+
+/** Built-ins have no saved versions; they render as version 1. */
+export const BUILTIN_VERSION = 1;
+
+/** What a build renders with until it pins a workshop template; the one built-in a build can pin. */
+export const DEFAULT_BUILTIN: BuiltinTemplateName = "generic-header";

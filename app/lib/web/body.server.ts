@@ -27,12 +27,12 @@ async function drain(reader: ReadableStreamDefaultReader<Uint8Array>, alreadyRea
 }
 
 /** The body as bytes, or a 413 once it passes `maxBytes` (by Content-Length or while reading). */
-export async function readBodyLimited(request: Request, maxBytes: number): Promise<Uint8Array<ArrayBuffer>> {
+export async function readBodyLimited(request: Request, maxBytes: number, tooBigMessage?: string): Promise<Uint8Array<ArrayBuffer>> {
   // A client still sending when the answer comes sees a broken pipe instead of the 413, so a
   // moderately oversized body is read to its end (and discarded, never kept); a huge one is cut
   // off, and the connection is closed since the rest of that body was never read.
   const tooBig = (): never => {
-    throw data({ message: `The request body is larger than ${megabytes(maxBytes)}; send a smaller config.` }, { status: 413, headers: { Connection: "close" } });
+    throw data({ message: tooBigMessage ?? `The request body is larger than ${megabytes(maxBytes)}; send a smaller config.` }, { status: 413, headers: { Connection: "close" } });
   };
   const declared = Number(request.headers.get("Content-Length"));
   if (Number.isFinite(declared) && declared > DRAIN_LIMIT_BYTES) tooBig();
@@ -87,9 +87,9 @@ export function parseJsonText(text: string, what = "The request body"): unknown 
   return value;
 }
 
-/** A JSON request body, capped at `maxBytes`. */
-export async function readJsonBody(request: Request, maxBytes = MAX_CONFIG_BYTES): Promise<unknown> {
-  const bytes = await readBodyLimited(request, maxBytes);
+/** A JSON request body, capped at `maxBytes` (413 with `tooBigMessage` past it). */
+export async function readJsonBody(request: Request, maxBytes = MAX_CONFIG_BYTES, tooBigMessage?: string): Promise<unknown> {
+  const bytes = await readBodyLimited(request, maxBytes, tooBigMessage);
   let text: string;
   try {
     text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
@@ -97,6 +97,17 @@ export async function readJsonBody(request: Request, maxBytes = MAX_CONFIG_BYTES
     fail(400, "The request body is not UTF-8 text; send a JSON document.");
   }
   return parseJsonText(text);
+}
+
+/** A page's form (urlencoded or multipart), capped at `maxBytes` like any body: 413 with `tooBigMessage` past it. */
+export async function readFormLimited(request: Request, maxBytes: number, tooBigMessage: string): Promise<FormData> {
+  const type = request.headers.get("Content-Type") ?? "application/x-www-form-urlencoded";
+  const bytes = await readBodyLimited(request, maxBytes, tooBigMessage);
+  try {
+    return await new Response(bytes, { headers: { "Content-Type": type } }).formData();
+  } catch {
+    fail(400, "The form could not be read; reload the page and try again.");
+  }
 }
 
 /** The JSON object's own field, or a 400 naming the field when the body is not an object with it. */

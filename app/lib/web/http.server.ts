@@ -1,5 +1,6 @@
-// Helpers for answers with the right status and a message a person can read. Pages throw
-// `fail(...)` (shown by the error boundary); API routes turn the same throw into JSON.
+// The one HTTP module: answers with the right status and a message a person can read. Pages throw
+// `fail(...)` (shown by the error boundaries); `failureOf` reads such a throw back, and
+// `apiAnswer` / `textAnswer` turn it into a JSON or plain-text answer for scripts and downloads.
 import { data } from "react-router";
 
 export type Failure = { message: string };
@@ -16,8 +17,26 @@ export function json(body: unknown, init: ResponseInit = {}): Response {
   return new Response(JSON.stringify(body), { ...init, headers });
 }
 
-function isDataWithInit(e: unknown): e is { type: "DataWithResponseInit"; data: unknown; init: ResponseInit | null } {
-  return typeof e === "object" && e !== null && (e as { type?: string }).type === "DataWithResponseInit";
+/** Plain text (a patch, a rendered header) that is never cached. */
+export function text(body: string, init: ResponseInit = {}): Response {
+  const headers = new Headers(init.headers);
+  if (!headers.has("Content-Type")) headers.set("Content-Type", "text/plain; charset=utf-8");
+  headers.set("Cache-Control", "no-store");
+  return new Response(body, { ...init, headers });
+}
+
+export type ThrownFailure = { status: number; message: string; headers?: HeadersInit };
+
+/**
+ * A failure thrown with `fail(...)` or the router's `data(..., { status })` (the server-side
+ * form of what `isRouteErrorResponse` recognises in a boundary), read back; null for anything
+ * else (a Response, a bug).
+ */
+export function failureOf(e: unknown): ThrownFailure | null {
+  if (typeof e !== "object" || e === null || (e as { type?: string }).type !== "DataWithResponseInit") return null;
+  const d = e as { data?: unknown; init?: ResponseInit | null };
+  const message = (d.data as Partial<Failure> | undefined)?.message;
+  return { status: d.init?.status ?? 500, message: typeof message === "string" ? message : "Request failed", headers: d.init?.headers };
 }
 
 /**
@@ -32,11 +51,20 @@ export async function apiAnswer(run: () => Promise<Response>): Promise<Response>
       if (e.status >= 300 && e.status < 400) return json({ error: "Sign in or send a valid bearer token." }, { status: 401 });
       return e;
     }
-    if (isDataWithInit(e)) {
-      const status = e.init?.status ?? 500;
-      const message = (e.data as Failure | undefined)?.message ?? "Request failed";
-      return json({ error: message }, { status, headers: e.init?.headers });
-    }
+    const f = failureOf(e);
+    if (f) return json({ error: f.message }, { status: f.status, headers: f.headers });
+    throw e;
+  }
+}
+
+/** The same for an address a person downloads from: failures answer as plain text with their status. */
+export async function textAnswer(run: () => Promise<Response>): Promise<Response> {
+  try {
+    return await run();
+  } catch (e) {
+    if (e instanceof Response) return e;
+    const f = failureOf(e);
+    if (f) return text(`${f.message}\n`, { status: f.status });
     throw e;
   }
 }
