@@ -8,11 +8,10 @@ import { CodeView } from "~/components/templates/CodeView";
 import { requirePermission, requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { can, isRenderViewAction, RENDER_VIEW_ACTIONS } from "~/lib/auth/permissions";
-import { storeCheckedConfig } from "~/lib/checks/save.server";
 import type { Diagnostic } from "~/lib/checks/validate";
-import { readAndCheck, readHeader, type ReadError } from "~/lib/readback";
-import { isPinnable, pinForBuild, templateChoices } from "~/lib/rendering/library.server";
-import { chooseTemplateForBuild, pinnedTemplate, renderBuildOrSource } from "~/lib/rendering/service.server";
+import { readAndCheck, type ReadError } from "~/lib/readback";
+import { applyHeader } from "~/lib/readback/apply.server";
+import { openRenderView, pinForBuild } from "~/lib/rendering/library.server";
 import { readFormLimited } from "~/lib/web/body.server";
 import { fail } from "~/lib/web/http.server";
 import type { Route } from "./+types/builds.$buildId.render";
@@ -28,23 +27,7 @@ const MAX_HEADER_BYTES = 2 * 1024 * 1024;
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
-  const pinned = await pinnedTemplate(v, b);
-  const t = await chooseTemplateForBuild(v, b, new URL(request.url).searchParams.get("template"), undefined, pinned);
-  // In a worker, with the API's clock (decision 007): this page renders on the server too.
-  const r = await renderBuildOrSource(v, { build: b }, t);
-  const { choices, pinnedLatest } = await templateChoices(v, pinned);
-  return {
-    buildId: b.id,
-    buildName: b.name,
-    configVersion: b.config_version,
-    // The workshop templates this version uses, at the versions it recorded when it was saved.
-    template: { id: t.id, name: t.name, version: t.version, kind: t.kind, ref: t.id ?? t.name, uses: Object.entries(r.uses).map(([name, u]) => ({ name, version: u.version })), pinnable: isPinnable(t) },
-    pinned: { id: pinned.id, name: pinned.name, version: pinned.version, latest: pinnedLatest },
-    choices,
-    // A failed render quotes the template's lines under its errors (the page does not show it).
-    result: r.kind === "rendered" ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: r.errors, source: t.source },
-    canEdit: can(v.role, "edit:build"),
-  };
+  return { ...(await openRenderView(v, b, new URL(request.url).searchParams.get("template"))), canEdit: can(v.role, "edit:build") };
 }
 
 type ReadAnswer =
@@ -72,12 +55,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   const expected = Number(form.get("configVersion"));
   if (typeof text !== "string" || text.trim() === "") fail(400, "The form has no header text.");
   if (!Number.isInteger(expected) || expected < 0) fail(400, "The form must carry the config version the page was read at.");
-  const read = readHeader(text);
-  if (!read.config || read.errors.length) return data<ReadAnswer>({ intent: "apply", ok: false, message: "The header does not read back; nothing was stored.", diagnostics: [] }, { status: 422 });
-  const r = await storeCheckedConfig(v, b.id, read.config, expected);
-  if (r.kind === "invalid") return data<ReadAnswer>({ intent: "apply", ok: false, message: r.message, diagnostics: r.diagnostics }, { status: 422 });
-  if (r.kind === "stale") return data<ReadAnswer>({ intent: "apply", ok: false, message: r.message, diagnostics: [] }, { status: 409 });
-  return data<ReadAnswer>({ intent: "apply", ok: true, message: `The header is now the build's config (version ${r.version}).`, diagnostics: [] });
+  const r = await applyHeader(v, b.id, text, expected);
+  return data<ReadAnswer>({ intent: "apply", ok: r.ok, message: r.message, diagnostics: r.diagnostics }, { status: r.status });
 }
 
 export default function RenderPage({ loaderData }: Route.ComponentProps) {

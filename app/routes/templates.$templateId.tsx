@@ -9,13 +9,10 @@ import { data, Form, Link, redirect, useFetcher, useSubmit } from "react-router"
 import { CodeFrame } from "~/components/templates/CodeFrame";
 import { CodeView } from "~/components/templates/CodeView";
 import { DeleteTemplate, type DeleteAnswer } from "~/components/templates/DeleteTemplate";
-import { VersionDiff, type CompareData } from "~/components/templates/VersionDiff";
+import { VersionDiff } from "~/components/templates/VersionDiff";
 import { ErrorPage } from "~/components/ErrorPage";
 import { requireViewer } from "~/lib/auth/auth.server";
-import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { buildChoices } from "~/lib/builds/builds.server";
-import { can } from "~/lib/auth/permissions";
-import { compareVersions, deleteConfirmed, dependentsOf, openTemplate, partialsMovedOn, saveTemplateSource, workshopSources, workshopTemplate } from "~/lib/rendering/library.server";
+import { deleteConfirmed, openTemplatePage, saveTemplateSource, workshopTemplate } from "~/lib/rendering/library.server";
 import { useDraftPreview } from "~/lib/rendering/preview";
 import { metaForBuild } from "~/lib/rendering/render";
 import type { TemplateError } from "~/lib/template";
@@ -42,24 +39,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     to.set("compare", `${pickedFrom ?? ""}..${pickedTo ?? ""}`);
     throw redirect(`${url.pathname}?${to}`);
   }
-  const { template, versions } = await openTemplate(v, params.templateId, url.searchParams.get("version"));
-  const compareParam = url.searchParams.get("compare");
-  const compare: Omit<CompareData, "closeHref"> | null = compareParam === null ? null : await compareVersions(v, template, compareParam);
-  const canEdit = template.kind === "workshop" && can(v.role, "edit:template");
-  const builds = await buildChoices(v);
-  const buildId = url.searchParams.get("build") ?? builds[0]?.id;
-  const b = buildId ? await loadBuildFor(v, buildId) : null;
-  return {
-    template,
-    versions,
-    partials: await workshopSources(v),
-    builds,
-    build: b ? { id: b.id, name: b.name, client_name: b.client_name, config_saved_at: b.config_saved_at.toISOString(), config_version: b.config_version, config: b.config } : null,
-    canEdit,
-    compare,
-    dependents: canEdit ? await dependentsOf(v, template) : null,
-    newerPartials: await partialsMovedOn(v, template),
-  };
+  return openTemplatePage(v, params.templateId, { version: url.searchParams.get("version"), compare: url.searchParams.get("compare"), build: url.searchParams.get("build") });
 }
 
 type SaveAnswer = { ok: true; version: number } | { ok: false; message: string; errors?: TemplateError[] };

@@ -4,6 +4,9 @@
 // deleting with a typed confirmation, starting a template from a copy, and which template a
 // build may pin. Routes guard, parse and call one of these; failures a person caused are 4xx.
 import type { Viewer } from "../auth/auth.server";
+import { loadBuildFor } from "../auth/build-access.server";
+import { can } from "../auth/permissions";
+import { buildChoices } from "../builds/builds.server";
 import { db } from "../db/db.server";
 import {
   createTemplate,
@@ -25,7 +28,7 @@ import {
 import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, compileTemplate, DEFAULT_BUILTIN, isBuiltinName, type TemplateError } from "../template";
 import { fail } from "../web/http.server";
 import { partialsFrom } from "./render";
-import type { ResolvedTemplate } from "./service.server";
+import { chooseTemplateForBuild, pinnedTemplate, renderBuildOrSource, type RenderableBuild, type ResolvedTemplate } from "./service.server";
 import { diffVersions, newerPartials, parseCompare, type NewerPartial, type VersionDiff } from "./version-diff";
 
 export type OpenedTemplate = { id: string; name: string; kind: "builtin" | "workshop"; version: number; latest: number; source: string };
@@ -56,6 +59,32 @@ export async function partialsMovedOn(v: Viewer, t: OpenedTemplate): Promise<New
   if (t.kind !== "workshop" || t.version !== t.latest) return [];
   const [recorded, now] = await Promise.all([recordedUses(db(), v.workshop.id, t.id, t.version), usesOf(db(), v.workshop.id, t.source)]);
   return newerPartials(recorded, now);
+}
+
+/**
+ * Everything the template editor page shows: the template at the asked version, its versions, a
+ * comparison when asked, the build to preview with (the asked one, else the first by name), the
+ * workshop's templates as draft partials, what moved on under it, and what depends on it for
+ * those who may delete it.
+ */
+export async function openTemplatePage(v: Viewer, ref: string, ask: { version: string | null; compare: string | null; build: string | null }) {
+  const { template, versions } = await openTemplate(v, ref, ask.version);
+  const compare = ask.compare === null ? null : await compareVersions(v, template, ask.compare);
+  const canEdit = template.kind === "workshop" && can(v.role, "edit:template");
+  const builds = await buildChoices(v);
+  const buildId = ask.build ?? builds[0]?.id;
+  const b = buildId ? await loadBuildFor(v, buildId) : null;
+  return {
+    template,
+    versions,
+    partials: await workshopSources(v),
+    builds,
+    build: b ? { id: b.id, name: b.name, client_name: b.client_name, config_saved_at: b.config_saved_at.toISOString(), config_version: b.config_version, config: b.config } : null,
+    canEdit,
+    compare,
+    dependents: canEdit ? await dependentsOf(v, template) : null,
+    newerPartials: await partialsMovedOn(v, template),
+  };
 }
 
 export type Comparison = { from: number; to: number; diff: VersionDiff; patchHref: string };
@@ -156,6 +185,29 @@ export async function templateChoices(v: Viewer, pinned: ResolvedTemplate): Prom
       ...workshop.map((w) => ({ ref: w.id, label: `${w.name} (v${w.id === pinned.id ? pinned.version : w.latest})` })),
     ],
     pinnedLatest: pinned.id ? (workshop.find((w) => w.id === pinned.id)?.latest ?? pinned.version) : null,
+  };
+}
+
+/**
+ * What a build's Render view shows: the build rendered (in a worker, with the API's clock,
+ * decision 007) with the asked template or its own, the versions of the templates that one
+ * uses, the pin and how far it is behind, and the picker's choices. A failed render carries the
+ * template's source so its errors can quote their lines.
+ */
+export async function openRenderView(v: Viewer, b: RenderableBuild & { id: string }, ref: string | null) {
+  const pinned = await pinnedTemplate(v, b);
+  const t = await chooseTemplateForBuild(v, b, ref, undefined, pinned);
+  const r = await renderBuildOrSource(v, { build: b }, t);
+  const { choices, pinnedLatest } = await templateChoices(v, pinned);
+  return {
+    buildId: b.id,
+    buildName: b.name,
+    configVersion: b.config_version,
+    // The workshop templates this version uses, at the versions it recorded when it was saved.
+    template: { id: t.id, name: t.name, version: t.version, kind: t.kind, ref: t.id ?? t.name, uses: Object.entries(r.uses).map(([name, u]) => ({ name, version: u.version })), pinnable: isPinnable(t) },
+    pinned: { id: pinned.id, name: pinned.name, version: pinned.version, latest: pinnedLatest },
+    choices,
+    result: r.kind === "rendered" ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: r.errors, source: t.source },
   };
 }
 

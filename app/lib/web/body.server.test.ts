@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { jsonDepth, parseJsonText, readBodyLimited, readJsonBody, requireField, MAX_JSON_DEPTH } from "./body.server";
+import { jsonDepth, parseJsonText, readBodyLimited, readFormLimited, readJsonBody, requireField, MAX_JSON_DEPTH } from "./body.server";
 
 /** What `fail` threw: status and message, or the error itself when it was something else. */
 async function failure(p: Promise<unknown> | (() => unknown)): Promise<{ status?: number; message?: string }> {
@@ -87,5 +87,18 @@ describe("readJsonBody and requireField", () => {
   });
   it("refuses bytes that are not UTF-8", async () => {
     expect(await failure(readJsonBody(post(new Uint8Array([0x7b, 0xff, 0x7d]))))).toMatchObject({ status: 400, message: expect.stringMatching(/UTF-8/) });
+  });
+});
+
+describe("readFormLimited", () => {
+  it("reads a page's urlencoded form under the cap", async () => {
+    const form = await readFormLimited(post("intent=save&source=a%3Db", { "Content-Type": "application/x-www-form-urlencoded" }), 1024, "too big");
+    expect(Object.fromEntries(form)).toEqual({ intent: "save", source: "a=b" });
+  });
+  it("refuses a form past the cap with 413 and the page's own message, by declared length or while reading", async () => {
+    const body = "source=" + "x".repeat(2000);
+    expect(await failure(readFormLimited(post(body, { "Content-Type": "application/x-www-form-urlencoded" }), 1024, "The template is larger than 1 KB."))).toEqual({ status: 413, message: "The template is larger than 1 KB." });
+    const { stream } = streamOf(4, 512);
+    expect(await failure(readFormLimited(post(stream, { "Content-Type": "application/x-www-form-urlencoded" }), 1024, "too big"))).toEqual({ status: 413, message: "too big" });
   });
 });
