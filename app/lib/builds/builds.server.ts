@@ -61,7 +61,7 @@ export type RigSave = { kind: "saved"; version: number } | { kind: "invalid"; me
  * `rig` come back as the form's field errors.
  */
 export async function saveRig(v: Viewer, b: { id: string; config: Config }, rig: Rig, expectedVersion: number): Promise<RigSave> {
-  const known = validateConfig(b.config, { power: powerModeFor(b.config) }).diagnostics;
+  const known = () => validateConfig(b.config, { power: powerModeFor(b.config) }).diagnostics;
   const r: StoreResult = await storeCheckedConfig(v, b.id, { ...b.config, rig }, expectedVersion, { known });
   if (r.kind === "saved") return { kind: "saved", version: r.version };
   if (r.kind === "stale") return { kind: "stale" };

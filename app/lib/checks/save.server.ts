@@ -20,8 +20,9 @@ export type StoreOptions = {
    * Errors the stored config already has (same code and path). A save that edits one part of a
    * config (the rig form) is refused only for errors it adds: a build still being configured
    * (no presets yet) keeps its rig editable. Whole-config saves pass nothing: any error refuses.
+   * A function is called only when the new config has errors (validating costs up to a second).
    */
-  known?: readonly Diagnostic[];
+  known?: readonly Diagnostic[] | (() => readonly Diagnostic[]);
 };
 
 const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.path === b.path;
@@ -29,8 +30,11 @@ const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.
 /** The same with the database passed in (tests, transactions). */
 export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: string, buildId: string, input: unknown, expectedVersion: number, opts: StoreOptions = {}): Promise<StoreResult> {
   const { config, diagnostics } = validateConfig(input, { power: powerModeFor(input) });
-  const known = opts.known ?? [];
-  let errors = diagnostics.filter((d) => d.severity === "error" && !known.some((k) => sameDiagnostic(k, d)));
+  let errors = diagnostics.filter((d) => d.severity === "error");
+  if (errors.length > 0 && opts.known) {
+    const known = typeof opts.known === "function" ? opts.known() : opts.known;
+    errors = errors.filter((d) => !known.some((k) => sameDiagnostic(k, d)));
+  }
   // A config without the model's shape is never stored, whatever was known before.
   if (!config && errors.length === 0) errors = diagnostics.filter((d) => d.severity === "error");
   if (!config || errors.length > 0) {
