@@ -1,6 +1,8 @@
 // A reader for the part of C the generic header uses: `name[...] = { ... };` initializers with
 // designators, numbers, string literals and enum names. Comments and preprocessor lines are
-// skipped, so a hand-edited file with extra comments or reordered lines still reads.
+// skipped, so a hand-edited file with extra comments or reordered lines still reads; the one
+// comment it understands is an entry's index, `/* #3 */ { … }`, which version 2 of the header
+// writes instead of C's `[3] = { … }` (C++ has no array designators).
 
 export interface Pos {
   line: number;
@@ -21,7 +23,8 @@ export interface CItem {
 }
 
 interface CTok {
-  t: "id" | "num" | "str" | "p";
+  // `idx`: an index comment (slash-star #n star-slash), kept only where an entry starts.
+  t: "id" | "num" | "str" | "p" | "idx";
   v: string;
   pos: Pos;
 }
@@ -33,6 +36,14 @@ export class CReadError extends Error {
   ) {
     super(message);
   }
+}
+
+const INDEX_COMMENT = /^\s*#\s*([0-9]+)\s*$/;
+
+// Index comments count only right before an entry (`{` or `,` before, `{` after); elsewhere
+// they are plain comments.
+function placeIndexComments(toks: CTok[]): CTok[] {
+  return toks.filter((t, k) => t.t !== "idx" || ((toks[k - 1]?.v === "{" || toks[k - 1]?.v === ",") && toks[k + 1]?.v === "{"));
 }
 
 const SIMPLE_ESC: Record<string, number> = { n: 10, t: 9, r: 13, a: 7, b: 8, f: 12, v: 11, "\\": 92, '"': 34, "'": 39, "?": 63 };
@@ -64,6 +75,8 @@ function lex(text: string): CTok[] {
     if (c === "/" && text[i + 1] === "*") {
       const end = text.indexOf("*/", i + 2);
       if (end === -1) throw new CReadError("a comment '/*' is never closed", pos(i));
+      const index = INDEX_COMMENT.exec(text.slice(i + 2, end));
+      if (index) toks.push({ t: "idx", v: index[1], pos: pos(i) });
       for (let k = i; k < end; k++) if (text[k] === "\n") newline(k);
       i = end + 2;
       continue;
@@ -153,7 +166,7 @@ export function parseCNumber(raw: string, at: Pos): number {
 
 /** All `name[...] = { ... }` and `name = { ... }` initializers of the file, by name. */
 export function readInitializers(text: string): Map<string, CVal & { k: "list" }> {
-  const toks = lex(text);
+  const toks = placeIndexComments(lex(text));
   const out = new Map<string, CVal & { k: "list" }>();
   let i = 0;
   const expect = (v: string) => {
@@ -190,7 +203,10 @@ export function readInitializers(text: string): Map<string, CVal & { k: "list" }
     while (toks[i] && toks[i].v !== "}") {
       const at = toks[i].pos;
       const item: Partial<CItem> = { pos: at };
-      if (toks[i].v === "." && toks[i + 1]?.t === "id") {
+      if (toks[i].t === "idx") {
+        item.index = Number(toks[i].v);
+        i++;
+      } else if (toks[i].v === "." && toks[i + 1]?.t === "id") {
         item.field = toks[i + 1].v;
         i += 2;
         expect("=");

@@ -1,24 +1,59 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { demoConfig } from "../config/demo";
+import { demoConfig, demoConfigSmall } from "../config/demo";
 import {
   BLEND_MODES, CHANNEL_ROLES, COLOR_ORDERS, CONFIG_FORMAT, CONTROL_EVENTS, CUES, EASINGS, GESTURES, LASTING_EVENTS, MOMENT_EVENTS, MOTIONS,
   configSchema, type Config, type Layer,
 } from "../config/schema";
-import { BUILTIN_TEMPLATES } from "../template/builtins";
+import { builtinSource } from "../template/builtins";
 import { compileTemplate, renderTemplate } from "../template/compile";
 import { readHeader } from "./readback";
 import { ccCheck, hasCC, META } from "../template/test-helpers";
+import { C_REFERENCE, hasCxx, TOOLCHAINS, walkTables } from "../template/test-compilers";
 
-const compiled = compileTemplate(BUILTIN_TEMPLATES["generic-header"]);
-if (!compiled.ok) throw new Error("generic-header does not compile");
-const header = (config: Config): string => {
-  const r = renderTemplate(compiled.template, config, META);
-  if (!r.ok) throw new Error(r.errors[0].message);
-  return r.output;
-};
+// Both forms of the generic header read back: version 1 (C's `[3] = { … }`) and version 2
+// (`/* #3 */ { … }`, every field named, C and C++ alike). Files written by either are in the wild.
+const FORMS = [1, 2].map((version) => {
+  const compiled = compileTemplate(builtinSource("generic-header", version)!);
+  if (!compiled.ok) throw new Error(`generic-header v${version} does not compile`);
+  return {
+    version,
+    /** How an entry's line starts: `  [3] = {` or `  /* #3 *\/ {`. */
+    entry: (n: number) => (version === 1 ? `  [${n}] = {` : `  /* #${n} */ {`),
+    header: (config: Config): string => {
+      const r = renderTemplate(compiled.template, config, META);
+      if (!r.ok) throw new Error(r.errors[0].message);
+      return r.output;
+    },
+  };
+});
+const header = FORMS[1].header;
 
-describe("readHeader", () => {
+describe("readHeader, version 2 only", () => {
+  it("understands index comments only where an entry starts, and HB_EMPTY, 0 and nullptr where v2 writes them", () => {
+    const small = demoConfigSmall();
+    small.rig.buttons = [];
+    small.controls = [];
+    small.rig.board.inputPins = [];
+    const h = header(small);
+    expect(h).toContain(".input_pins = { HB_EMPTY }, .input_pin_count = 0,");
+    expect(h).toMatch(/hb_buttons\[HB_BUTTON_COUNT \+ 1\] = \{\n {2}\{ HB_EMPTY \},\n\};/);
+    expect(readHeader(h)).toEqual({ config: small, errors: [] });
+    // A stray index comment inside an entry is a plain comment; `nullptr` reads as no string.
+    const edited = h.replace(".pixels = 7,", ".pixels = /* #9 */ 7,").replace(".channel_id = 0,", ".channel_id = nullptr,");
+    expect(edited).not.toBe(h);
+    expect(readHeader(edited)).toEqual({ config: small, errors: [] });
+  });
+
+  it("reads an entry without an index as the one after the previous entry", () => {
+    const lines = header(demoConfig()).split("\n");
+    const n = lines.findIndex((l) => l.includes('.id = "chamber"'));
+    lines[n] = lines[n].replace("/* #1 */ ", "");
+    expect(readHeader(lines.join("\n"))).toEqual({ config: demoConfig(), errors: [] });
+  });
+});
+
+describe.each(FORMS)("readHeader, generic-header v$version", ({ entry, header }) => {
   it("reads the demo header back to the same model", () => {
     expect(readHeader(header(demoConfig()))).toEqual({ config: demoConfig(), errors: [] });
   });
@@ -26,7 +61,7 @@ describe("readHeader", () => {
   it("reads a hand-edited file: reordered lines, changed numbers, comments added", () => {
     const lines = header(demoConfig()).split("\n");
     const at = (start: string) => lines.findIndex((l) => l.startsWith(start));
-    const ch0 = at('  [0] = { .id = "blade"');
+    const ch0 = at(entry(0) + ' .id = "blade"');
     [lines[ch0], lines[ch0 + 2]] = [lines[ch0 + 2], lines[ch0]];
     lines[ch0 + 1] = "  /* the chamber window strip */ " + lines[ch0 + 1].replace(".pixels = 7", ".pixels = 9") + " // edited";
     const power = at("  .brightness_cap");
@@ -43,7 +78,7 @@ describe("readHeader", () => {
     const chLine = lines.findIndex((l) => l.includes('.id = "chamber"'));
     lines[chLine] = lines[chLine].replace("HB_ROLE_CHAMBER_STRIP", "HB_ROLE_CHAMBR").replace(".pin = 3", ".pim = 3");
     const btn = lines.findIndex((l) => l.includes('.id = "auxiliary"'));
-    lines[btn] = lines[btn].replace("[1] =", "[0] =");
+    lines[btn] = lines[btn].replace(entry(1), entry(0));
     const r = readHeader(lines.join("\n"));
     expect(r.config).toBeNull();
     expect(r.errors.map((e) => [e.line, e.message])).toEqual([
@@ -56,7 +91,7 @@ describe("readHeader", () => {
 
   it("catches derived fields a hand edit forgot (counts and indices the firmware reads)", () => {
     const lines = header(demoConfig()).split("\n");
-    const n = lines.findIndex((l) => l.startsWith("  [0] = { .preset = 0, .channel_id = \"blade\""));
+    const n = lines.findIndex((l) => l.startsWith(entry(0) + ' .preset = 0, .channel_id = "blade"'));
     lines[n] = lines[n].replace(".layer_count = 8", ".layer_count = 9");
     const p = lines.findIndex((l) => l.includes('.font_id = "tidebreak"'));
     lines[p] = lines[p].replace(".font = 2", ".font = 1");
@@ -179,24 +214,46 @@ const configArb: fc.Arbitrary<Config> = fc.record({
 }) as fc.Arbitrary<Config>;
 
 describe("readHeader on random valid configs", () => {
-  it("reads every rendered header back to an equal model", () => {
+  it("reads every rendered header back to an equal model, in either version's form", () => {
     fc.assert(
       fc.property(configArb, (config) => {
         expect(configSchema.safeParse(config).success).toBe(true);
-        const r = readHeader(header(config));
-        expect(r.errors).toEqual([]);
-        expect(r.config).toStrictEqual(configSchema.parse(config));
+        for (const form of FORMS) {
+          const r = readHeader(form.header(config));
+          expect(r.errors).toEqual([]);
+          expect(r.config).toStrictEqual(configSchema.parse(config));
+        }
       }),
       { numRuns: 150 },
     );
   }, 60_000);
 
-  it.skipIf(!hasCC)("renders headers the C compiler accepts (outside judge: cc -std=c11 -Wall -Werror)", () => {
+  it.skipIf(!hasCC)("renders headers the C compiler accepts (outside judge: cc -std=c11 -Wall -Werror), v1 and v2", () => {
     fc.assert(
       fc.property(configArb, (config) => {
-        ccCheck(header(config));
+        for (const form of FORMS) ccCheck(form.header(config));
       }),
       { numRuns: 12 },
     );
   }, 120_000);
+
+  // Firmware's view: a consumer program includes the v2 header, walks every table by its counts
+  // and links and fails on any index out of range or any look whose layers are not its own;
+  // built as C and as C++ it must read the same values that C reads from the v1 header.
+  it.skipIf(!hasCxx || !C_REFERENCE)(`a consumer program walks every table in C and in C++ (${TOOLCHAINS.filter((t) => !t.name.includes("c17")).map((t) => t.name).join(", ")})`, () => {
+    const chains = TOOLCHAINS.filter((t) => !t.name.includes("c17"));
+    fc.assert(
+      fc.property(configArb, (config) => {
+        const reference = walkTables(FORMS[0].header(config), C_REFERENCE!);
+        expect(reference.code, reference.stderr).toBe(0);
+        const v2 = FORMS[1].header(config);
+        for (const tc of chains) {
+          const r = walkTables(v2, tc);
+          expect(r.code, `${tc.name}: ${r.stderr}`).toBe(0);
+          expect(r.stdout, tc.name).toBe(reference.stdout);
+        }
+      }),
+      { numRuns: 8 },
+    );
+  }, 240_000);
 });

@@ -1,5 +1,6 @@
 // Reads a file in generic-header form back into the config model. Entries are found by their
-// designators (`[3] = { .field = value }`), not by line order, so reordered lines and added
+// indices (version 2's `/* #3 */ { .field = value }`, or version 1's C designators
+// `[3] = { .field = value }`), not by line order, so reordered lines and added
 // comments are fine; derived fields (counts, indices) are ignored; the result is checked with
 // the model's own schema, and every problem points at a line of the file.
 import { CONFIG_FORMAT, configSchema, type Config } from "../config/schema";
@@ -52,6 +53,7 @@ class Reader {
       this.err(v.pos, `${what} should be a number`);
     } else if (kind === "str") {
       if (v.k === "str") return v.v;
+      if (isNullPointer(v)) return undefined;
       this.err(v.pos, `${what} should be a string literal`);
     } else if (kind === "bool") {
       if (v.k === "ident" && (v.v === "true" || v.v === "false")) return v.v === "true";
@@ -62,9 +64,11 @@ class Reader {
         return "#" + (/^0[xX][0-9a-fA-F]{6}$/.test(v.raw) ? v.raw.slice(2) : v.v.toString(16).padStart(6, "0"));
       this.err(v.pos, `${what} should be a colour 0xRRGGBB`);
     } else if (kind === "numlist") {
+      if (isEmptyList(v)) return [];
       if (v.k === "list" && v.items.every((i) => !i.field && i.index === undefined)) return v.items.map((i) => this.value(i.value, "num", what));
       this.err(v.pos, `${what} should be a list of numbers { 1, 2 }`);
     } else if ("listOf" in kind) {
+      if (isEmptyList(v)) return [];
       if (v.k === "list") return v.items.map((i) => this.value(i.value, kind.listOf, what));
       this.err(v.pos, `${what} should be a list { … }`);
     } else {
@@ -88,7 +92,7 @@ class Reader {
     let next = 0;
     for (const item of t.items) {
       if (item.field) {
-        this.err(item.pos, `'${name}' is a table; write entries as '[n] = { … }'`);
+        this.err(item.pos, `'${name}' is a table; write entries as '/* #n */ { … }' (or, in C only, '[n] = { … }')`);
         continue;
       }
       if (item.index === undefined && isZeroSentinel(item)) continue;
@@ -113,9 +117,23 @@ class Reader {
   }
 }
 
+/** The zeroed entry an empty table holds: `{ 0 }` (version 1) or `{ HB_EMPTY }` (version 2). */
 function isZeroSentinel(item: CItem): boolean {
   const v = item.value;
-  return v.k === "list" && v.items.length === 1 && !v.items[0].field && v.items[0].value.k === "num" && v.items[0].value.v === 0;
+  return (v.k === "list" && v.items.length === 1 && !v.items[0].field && v.items[0].value.k === "num" && v.items[0].value.v === 0) || isEmptyList(v);
+}
+
+/** `{ HB_EMPTY }`: the header's empty list (`{ 0 }` in C, `{ }` in C++), and `{ }` itself. */
+function isEmptyList(v: CVal): boolean {
+  if (v.k !== "list") return false;
+  if (v.items.length === 0) return true;
+  const only = v.items[0].value;
+  return v.items.length === 1 && !v.items[0].field && v.items[0].index === undefined && only.k === "ident" && only.v === "HB_EMPTY";
+}
+
+/** A string field left without a string: `0`, `NULL` or `nullptr`. */
+function isNullPointer(v: CVal): boolean {
+  return (v.k === "num" && v.v === 0 && v.raw === "0") || (v.k === "ident" && (v.v === "NULL" || v.v === "nullptr"));
 }
 
 function plain(row: Row, keys: string[]): Record<string, unknown> {

@@ -9,7 +9,7 @@ import { db } from "../db/db.server";
 import type { TemplateUses } from "../db/types";
 import { getTemplateVersion, latestSources, sourcesForVersion } from "../repo/templates.server";
 import { isUuid } from "../repo/builds.server";
-import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, DEFAULT_BUILTIN, isBuiltinName, type Limits } from "../template";
+import { BUILTIN_NAMES, BUILTIN_VERSION, builtinSource, DEFAULT_BUILTIN, isBuiltinName, type Limits } from "../template";
 import { fail } from "../web/http.server";
 import { renderOffThread } from "./pool.server";
 import { metaForBuild, type RenderOutcome } from "./render";
@@ -31,9 +31,16 @@ export type RenderableBuild = BuildPin & { name: string; client_name: string; co
  */
 export const API_LIMITS: Partial<Limits> = { maxMillis: 500 };
 
-/** A template reference: a built-in's name or a workshop template's id (latest version unless given). */
+/**
+ * A template reference: a built-in's name or a workshop template's id, at the version given or
+ * else the latest. A built-in at an earlier version renders that version's bytes (decision 015).
+ */
 export async function resolveTemplate(v: Viewer, ref: string, version?: number): Promise<ResolvedTemplate> {
-  if (isBuiltinName(ref)) return { kind: "builtin", id: null, name: ref, version: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] };
+  if (isBuiltinName(ref)) {
+    const source = builtinSource(ref, version ?? BUILTIN_VERSION);
+    if (source === undefined) fail(404, `The built-in '${ref}' has versions 1 to ${BUILTIN_VERSION}.`);
+    return { kind: "builtin", id: null, name: ref, version: version ?? BUILTIN_VERSION, source };
+  }
   if (!isUuid(ref)) fail(404, `No template '${ref.slice(0, 80)}': use a built-in (${BUILTIN_NAMES.join(", ")}) or a template id of your workshop.`);
   const row = await getTemplateVersion(db(), v.workshop.id, ref, version);
   if (!row) fail(404, version === undefined ? "No template with this id in your workshop." : `This template has no version ${version}.`);

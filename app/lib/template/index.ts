@@ -4,7 +4,7 @@ export { compileTemplate, renderTemplate, render } from "./compile";
 export type { CompiledTemplate, CompileOptions, CompileResult, RenderMeta, RenderResult } from "./compile";
 export { formatError, TemplateFailure } from "./errors";
 export type { TemplateError, Stage, Severity } from "./errors";
-export { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, DEFAULT_BUILTIN, builtinPartials, isBuiltinName } from "./builtins";
+export { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, DEFAULT_BUILTIN, builtinPartials, builtinSource, isBuiltinName } from "./builtins";
 export type { BuiltinTemplateName } from "./builtins";
 export { templateCache, parseTemplate } from "./cache";
 export { DEFAULT_LIMITS } from "./limits";
