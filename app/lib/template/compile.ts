@@ -2,6 +2,7 @@
 // build closures), render many times as a pure function of config, metadata and template.
 import type { Config } from "../config/schema";
 import { alsoClear, parseCached, parseTemplate } from "./cache";
+import { cxxPortability } from "./check-cxx";
 import { compileBody } from "./compile-nodes";
 import { makeError, TemplateFailure, type TemplateError } from "./errors";
 import { DEFAULT_LIMITS, type Limits } from "./limits";
@@ -106,6 +107,8 @@ function compileUncached(source: string, opts: CompileOptions): CompileResult {
     else throw e;
     run = () => {};
   }
+  // C that only C compilers accept (decision 015): its own module, warnings only.
+  if (env.target === "c") for (const w of cxxPortability(parsed.ast, source)) env.diags.push({ severity: "warning", ...w });
   const all = env.diags.map((d) => makeError(source, "check", d.message, d.from, d.to, d.severity));
   const errors = all.filter((d) => d.severity === "error");
   const warnings = all.filter((d) => d.severity === "warning");
