@@ -95,7 +95,7 @@ test("a builder makes a template from the generic header, edits it live, saves v
     await page.goto(`/builds/${kestrel}`);
     await page.getByRole("navigation", { name: "Build sections" }).getByRole("link", { name: "Render" }).click();
     await expect(page).toHaveTitle("Render · Kestrel · Hiltbench");
-    await expect(page.getByTestId("render-template-used")).toContainText("Rendered with generic-header version 1");
+    await expect(page.getByTestId("render-template-used")).toContainText("Rendered with generic-header version 2");
     await page.getByLabel("Template", { exact: true }).selectOption({ label: `${name} (v2)` });
     await expect(page.getByTestId("render-template-used")).toContainText(`Rendered with ${name} version 2`);
     await expect(page.locator("[data-testid=render-output] .cm-content")).toContainText("// first channel: 132 pixels");
@@ -173,7 +173,7 @@ test("a hand-edited header reads back on the Render view, with errors at their l
     await expect(page.getByRole("button", { name: "Make this the build's config" })).toHaveCount(0);
 
     // Reads back, but the validator finds an error: it cannot become the config.
-    await box.fill(rendered.replace(/(\[0\] = \{ \.id = "blade".*?\.pin = )\d+/, "$199"));
+    await box.fill(rendered.replace(/(\/\* #0 \*\/ \{ \.id = "blade".*?\.pin = )\d+/, "$199"));
     await page.getByRole("button", { name: "Read and check" }).click();
     await expect(page.getByTestId("readback-result")).toContainText("The header reads back");
     await expect(page.getByTestId("readback-result")).toContainText("Fix the errors before it can become the build's config.");
@@ -188,6 +188,14 @@ test("a hand-edited header reads back on the Render view, with errors at their l
     await expect(page.getByText(`The header is now the build's config (version ${before + 1}).`)).toBeVisible();
     const after = (await sql.query("SELECT config FROM builds WHERE id = $1", [kestrel])).rows[0].config;
     expect(after.rig.channels[1].name).toBe("Chamber glass");
+
+    // A header written by version 1 of the generic header (C's `[n] = { … }`) still reads back.
+    const v1 = await page.request.get(`/api/builds/${kestrel}/render?template=generic-header&version=1`);
+    const v1Text = await v1.text();
+    expect(v1Text).toContain('  [1] = { .id = "chamber", .name = "Chamber glass"');
+    await box.fill(v1Text.replace('.name = "Chamber glass"', '.name = "Chamber pane"'));
+    await page.getByRole("button", { name: "Read and check" }).click();
+    await expect(page.getByTestId("readback-result")).toContainText("The header reads back");
   });
 });
 
@@ -204,6 +212,19 @@ test("the render API answers text, 422 with positions for a broken or runaway te
   // Deterministic: the same build renders to the same bytes through either route.
   const again = await api.get(`/api/builds/${kestrel}/render?template=generic-header`);
   expect(await again.text()).toBe(header);
+  // The built-ins are at version 2 (C and C++ alike); version 1 is still there, byte for byte.
+  expect(again.headers()["x-template"]).toBe("generic-header@2");
+  expect(header).toContain(" * template: generic-header v2\n");
+  expect(header).toContain('  /* #0 */ { .id = "blade",');
+  const v1 = await api.get(`/api/builds/${kestrel}/render?template=generic-header&version=1`);
+  expect(v1.status()).toBe(200);
+  expect(v1.headers()["x-template"]).toBe("generic-header@1");
+  const v1Text = await v1.text();
+  expect(v1Text).toContain(" * template: generic-header v1\n");
+  expect(v1Text).toContain('  [0] = { .id = "blade",');
+  const v3 = await api.get(`/api/builds/${kestrel}/render?template=generic-header&version=3`);
+  expect(v3.status()).toBe(404);
+  expect(await v3.text()).toContain("The built-in 'generic-header' has versions 1 to 2.");
 
   const config = (await sql.query("SELECT config FROM builds WHERE id = $1", [kestrel])).rows[0].config;
   const fromConfig = await api.post("/api/render", { data: { config, template: { source: "@( config.rig.channels |> count )@ channels" } } });

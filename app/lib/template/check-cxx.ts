@@ -129,8 +129,12 @@ export function cxxPortability(ast: TemplateAst, source: string): PortabilityWar
   };
 
   const expanding = new Set<string>();
+  // Pieces are walked where they are used; pieces using pieces could multiply that, so the walk
+  // has a budget of its own and gives up quietly (no warnings are invented) past it.
+  let budget = 200_000;
   const walk = (s: State, nodes: Node[]): State => {
     for (const n of nodes) {
+      if (--budget < 0) s.lost = true;
       if (s.lost) return s;
       switch (n.k) {
         case "text":
@@ -250,50 +254,56 @@ function fieldNames(body: string): string[] | null {
   return names;
 }
 
+const isIdStart = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95;
+const isDigit = (c: number) => c >= 48 && c <= 57;
+const isIdPart = (c: number) => isIdStart(c) || isDigit(c);
+
 /** C tokens of one piece of text: comments, strings, character constants and preprocessor lines skipped. */
 function lexC(text: string, base: number): Tok[] {
   const toks: Tok[] = [];
+  const n = text.length;
   let i = 0;
   let lineStart = true;
-  while (i < text.length) {
-    const c = text[i];
-    if (c === "\n") {
+  while (i < n) {
+    const c = text.charCodeAt(i);
+    if (c === 10) {
       lineStart = true;
       i++;
       continue;
     }
-    if (c === " " || c === "\t" || c === "\r") {
+    if (c === 32 || c === 9 || c === 13) {
       i++;
       continue;
     }
-    if (c === "/" && text[i + 1] === "*") {
+    const next = text.charCodeAt(i + 1);
+    if (c === 47 && next === 42) {
       const end = text.indexOf("*/", i + 2);
-      i = end < 0 ? text.length : end + 2;
+      i = end < 0 ? n : end + 2;
       continue;
     }
-    if ((c === "/" && text[i + 1] === "/") || (c === "#" && lineStart)) {
-      while (i < text.length && text[i] !== "\n") i += text[i] === "\\" ? 2 : 1;
+    if ((c === 47 && next === 47) || (c === 35 && lineStart)) {
+      while (i < n && text.charCodeAt(i) !== 10) i += text.charCodeAt(i) === 92 ? 2 : 1;
       continue;
     }
     lineStart = false;
     const start = i;
-    if (c === '"' || c === "'") {
+    if (c === 34 || c === 39) {
       i++;
-      while (i < text.length && text[i] !== c && text[i] !== "\n") i += text[i] === "\\" ? 2 : 1;
+      while (i < n && text.charCodeAt(i) !== c && text.charCodeAt(i) !== 10) i += text.charCodeAt(i) === 92 ? 2 : 1;
       i++;
       toks.push({ t: "val", v: "", from: base + start, to: base + i });
-    } else if (/[A-Za-z_]/.test(c)) {
-      while (i < text.length && /\w/.test(text[i])) i++;
+    } else if (isIdStart(c)) {
+      while (i < n && isIdPart(text.charCodeAt(i))) i++;
       toks.push({ t: "id", v: text.slice(start, i), from: base + start, to: base + i });
-    } else if (/[0-9]/.test(c)) {
-      while (i < text.length && /[\w.]/.test(text[i])) i++;
+    } else if (isDigit(c)) {
+      while (i < n && (isIdPart(text.charCodeAt(i)) || text.charCodeAt(i) === 46)) i++;
       toks.push({ t: "num", v: text.slice(start, i), from: base + start, to: base + i });
-    } else if (c === "=" && text[i + 1] === "=") {
+    } else if (c === 61 && next === 61) {
       i += 2;
       toks.push({ t: "p", v: "==", from: base + start, to: base + i });
     } else {
       i++;
-      toks.push({ t: "p", v: c, from: base + start, to: base + i });
+      toks.push({ t: "p", v: text[start], from: base + start, to: base + i });
     }
   }
   return toks;
