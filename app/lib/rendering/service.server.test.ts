@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import type { Viewer } from "../auth/auth.server";
 import { failureOf } from "../web/http.server";
-import { BUILTIN_TEMPLATES } from "../template";
+import { BUILTIN_TEMPLATES, BUILTIN_VERSION, builtinSource } from "../template";
 import { chooseTemplate, chooseTemplateForBuild, renderBuildOrSource } from "./service.server";
 
 const v = { user: { id: "u" }, workshop: { id: "w", name: "Ember & Anvil Props" }, role: "builder", via: "session" } as unknown as Viewer;
@@ -27,7 +27,10 @@ describe("which template a render means", () => {
   });
 
   it("a build without a pin renders with the generic header, asked for or not; a ref that is no id is a 404 naming the built-ins", async () => {
-    expect(await chooseTemplateForBuild(v, unpinned, null)).toMatchObject({ kind: "builtin", name: "generic-header", version: 1 });
+    expect(await chooseTemplateForBuild(v, unpinned, null)).toMatchObject({ kind: "builtin", name: "generic-header", version: BUILTIN_VERSION, source: BUILTIN_TEMPLATES["generic-header"] });
+    // A built-in at an earlier version is that version's source (decision 015); one never released is a 404.
+    expect(await chooseTemplateForBuild(v, unpinned, "generic-header", 1)).toMatchObject({ kind: "builtin", name: "generic-header", version: 1, source: builtinSource("generic-header", 1) });
+    expect(await failure(chooseTemplateForBuild(v, unpinned, "generic-header", BUILTIN_VERSION + 1))).toMatchObject({ status: 404, message: `The built-in 'generic-header' has versions 1 to ${BUILTIN_VERSION}.` });
     expect(await chooseTemplateForBuild(v, unpinned, "generic-header")).toMatchObject({ kind: "builtin", name: "generic-header" });
     expect(await chooseTemplateForBuild(v, unpinned, "config-json")).toMatchObject({ kind: "builtin", name: "config-json" });
     expect(await failure(chooseTemplateForBuild(v, unpinned, "shop-header"))).toEqual({

@@ -64,7 +64,8 @@ export async function pinnedTemplate(v: Viewer, b: BuildPin): Promise<ResolvedTe
  * route shows a build the same bytes. `pinned` passes a pin already resolved (the Render view shows it).
  */
 export async function chooseTemplate(v: Viewer, ask: TemplateAsk | null, build?: BuildPin, pinned?: ResolvedTemplate): Promise<ResolvedTemplate> {
-  if (ask && "source" in ask) return { kind: "source", id: null, name: "posted", version: BUILTIN_VERSION, source: ask.source };
+  // Posted source has no versions; it renders as version 1 whatever the built-ins' version is.
+  if (ask && "source" in ask) return { kind: "source", id: null, name: "posted", version: 1, source: ask.source };
   if (ask && "builtin" in ask) {
     if (!isBuiltinName(ask.builtin)) fail(404, `No built-in template '${ask.builtin.slice(0, 80)}'.`);
     return resolveTemplate(v, ask.builtin);
