@@ -3,13 +3,14 @@
 import { sql } from "kysely";
 import { connect } from "../app/lib/db/connect";
 import { createToken } from "../app/lib/repo/tokens.server";
+import { devDatabaseUrl } from "./lib/services.mjs";
 
 const who = process.argv[2];
 if (!who) {
   console.error("usage: npm run api-token -- <email-or-github-login>");
   process.exit(2);
 }
-const db = connect(process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/hiltbench", 1);
+const db = connect(devDatabaseUrl(), 1);
 try {
   const user = await db
     .selectFrom("users")

@@ -1,9 +1,12 @@
-// `npm start`: install what is missing, start PostgreSQL on 127.0.0.1 (kept in .data/), migrate,
-// seed the demo workshop, start the local fakes and serve the app.
+// `npm start`: install what is missing, start PostgreSQL on 127.0.0.1 (kept in .data/, durable
+// settings, SCRAM passwords, an app role that is not a superuser), migrate, seed the demo
+// workshop, start the local fakes and serve the app. An app server that dies is started again
+// with backoff; Ctrl-C stops the app, the fakes and PostgreSQL, in that order.
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, writeFileSync, rmSync } from "node:fs";
 import path from "node:path";
-import { buildApp, ensureNodeModules, log, root, runTsx, startApp, startCluster, startFakes } from "./lib/services.mjs";
+import { buildApp, ensureAppRole, ensureNodeModules, log, root, runTsx, spawnApp, startApp, startCluster, startFakes, stopChild } from "./lib/services.mjs";
+import { supervise } from "./lib/supervise.mjs";
 
 const dataDir = path.join(root, ".data");
 mkdirSync(dataDir, { recursive: true });
@@ -31,19 +34,19 @@ writeFileSync(lockFile, JSON.stringify({ pid: process.pid, url }));
 
 const cleanups = [];
 let stopping = false;
-function shutdown(code = 0) {
+async function shutdown(code = 0) {
   if (stopping) return;
   stopping = true;
+  if (cleanups.length) log("stopping");
   for (const f of cleanups.reverse()) {
     try {
-      f();
+      await f();
     } catch {}
   }
   rmSync(lockFile, { force: true });
   process.exit(code);
 }
-process.on("SIGINT", () => shutdown(0));
-process.on("SIGTERM", () => shutdown(0));
+for (const signal of ["SIGINT", "SIGTERM", "SIGHUP"]) process.on(signal, () => shutdown(0));
 
 try {
   const started = Date.now();
@@ -51,9 +54,12 @@ try {
 
   let databaseUrl = process.env.DATABASE_URL;
   if (!databaseUrl) {
-    const cluster = startCluster(path.join(dataDir, "pg"), Number(process.env.PGPORT ?? 54329));
-    cleanups.push(cluster.stop);
-    databaseUrl = `${cluster.baseUrl}/hiltbench`;
+    const cluster = startCluster(path.join(dataDir, "pg"), Number(process.env.PGPORT ?? 54329), { durable: true });
+    cleanups.push(() => {
+      log("stopping PostgreSQL");
+      cluster.stop();
+    });
+    databaseUrl = ensureAppRole(cluster);
   }
   runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl });
 
@@ -61,10 +67,10 @@ try {
   if (!existsSync(secretFile)) writeFileSync(secretFile, randomBytes(32).toString("hex"), { mode: 0o600 });
 
   const fakes = await startFakes({ FAKE_GITHUB_PORT: process.env.FAKE_GITHUB_PORT ?? "0" });
-  cleanups.push(() => fakes.child.kill());
+  cleanups.push(() => stopChild(fakes.child));
 
   buildApp();
-  const app = await startApp({
+  const appEnv = {
     HOST,
     PORT,
     DATABASE_URL: databaseUrl,
@@ -72,12 +78,13 @@ try {
     APP_URL: process.env.APP_URL ?? url,
     AUTH_PROVIDER: process.env.AUTH_PROVIDER ?? "fake-github",
     ...fakes.settings,
-  }, { quiet: true });
-  cleanups.push(() => app.kill());
-  app.on("exit", (code) => shutdown(code ?? 1));
+  };
+  const app = supervise("the app server", () => spawnApp(appEnv, { quiet: true }));
+  app.adopt(await startApp(appEnv, { quiet: true }));
+  cleanups.push(() => app.stop());
   log(`ready in ${((Date.now() - started) / 1000).toFixed(1)} s`);
   console.log(`\n  Hiltbench is running at ${url}\n  Sign in with the local GitHub stand-in as demo-owner, demo-builder, demo-reviewer or a client.\n`);
 } catch (e) {
   console.error(`[hiltbench] ${e instanceof Error ? e.message : e}`);
-  shutdown(1);
+  await shutdown(1);
 }

@@ -1,6 +1,7 @@
 // `npm test`: the same set-up as `npm start`, on a throwaway PostgreSQL cluster, then every
 // test: type-check, Vitest (unit and Postgres-backed), and Playwright in Debian's Chromium
-// against the built app. The cluster is removed afterwards.
+// against the built app, then the system tests (tests/system: the built app on clusters of their
+// own, restarted and shared by two servers). The cluster is removed afterwards.
 import { spawnSync } from "node:child_process";
 import { chmodSync, mkdtempSync, readFileSync, existsSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -9,7 +10,7 @@ import { randomBytes } from "node:crypto";
 import { buildApp, ensureChromium, ensureNodeModules, freePort, log, removeDir, root, runTsx, startApp, startCluster, startFakes } from "./lib/services.mjs";
 
 const bin = (name) => path.join(root, "node_modules", ".bin", name);
-const only = process.argv[2]; // optional: "unit" or "e2e", then files or filters for that runner
+const only = process.argv[2]; // optional: "unit", "e2e" or "system", then files or filters for that runner
 const extra = process.argv.slice(3);
 const cleanups = [];
 const cleanup = async () => {
@@ -50,7 +51,7 @@ const work = mkdtempSync(path.join(tmpdir(), "hiltbench-test-"));
 chmodSync(work, 0o755); // the postgres user keeps its throwaway cluster in here
 try {
   ensureNodeModules();
-  if (only !== "unit") ensureChromium();
+  if (only !== "unit" && only !== "system") ensureChromium();
   const pgPort = await freePort();
   const cluster = startCluster(path.join(work, "pg"), pgPort);
   cleanups.push(() => removeDir(cluster.dir));
@@ -59,7 +60,7 @@ try {
   runTsx("db/setup.ts", [], { DATABASE_URL: `${base}/hb_template` });
   runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: `${base}/hb_e2e` });
 
-  if (only !== "e2e") {
+  if (only !== "e2e" && only !== "system") {
     ok = step("type-checking", bin("react-router"), ["typegen"]) && ok;
     ok = step("type-checking", bin("tsc"), ["--noEmit", "-p", "."]) && ok;
     ok =
@@ -69,7 +70,7 @@ try {
       }) && ok;
   }
 
-  if (only !== "unit") {
+  if (only !== "unit" && only !== "system") {
     const fakes = await startFakes({ FAKE_GITHUB_PORT: "0" });
     cleanups.push(stopChild(fakes.child));
     buildApp();
@@ -94,7 +95,17 @@ try {
       }) && ok;
   }
 
+  if (only === undefined || only === "system") {
+    if (only === "system") buildApp();
+    ok =
+      step("system tests (vitest: database restarts, two app servers)", bin("vitest"), ["run", "-c", "vitest.system.config.ts", "--reporter=default", "--reporter=json", `--outputFile.json=${work}/system.json`, ...(only ? extra : [])]) && ok;
+  }
+
   const v = counts(`${work}/vitest.json`, "vitest");
+  const sysCounts = counts(`${work}/system.json`, "vitest");
+  v.passed += sysCounts.passed;
+  v.failed += sysCounts.failed;
+  v.skipped += sysCounts.skipped;
   const p = counts(`${work}/playwright.json`, "playwright");
   console.log(`\nvitest: ${v.passed} passed, ${v.failed} failed, ${v.skipped} skipped`);
   console.log(`playwright: ${p.passed} passed, ${p.failed} failed, ${p.skipped} skipped`);

@@ -13,6 +13,15 @@ const schema = z
     FAKE_GITHUB_URL: z.string().url().optional(),
     GITHUB_CLIENT_ID: z.string().min(1).optional(),
     GITHUB_CLIENT_SECRET: z.string().min(1).optional(),
+    /** Connections each app server keeps to PostgreSQL (decision 010). */
+    HB_DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
+    /** Rate limits (requests per HB_RATE_WINDOW_SECONDS), shared by every app server (app/lib/limits/). */
+    HB_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).max(86_400).default(60),
+    HB_RATE_API_PER_TOKEN: z.coerce.number().int().min(1).default(1200),
+    HB_RATE_API_PER_ADDRESS: z.coerce.number().int().min(1).default(3000),
+    HB_RATE_SIGNIN_PER_ADDRESS: z.coerce.number().int().min(1).default(300),
+    /** Behind a load balancer: take the client address from the last X-Forwarded-For entry. */
+    HB_TRUST_PROXY: z.enum(["0", "1"]).default("0"),
   })
   .superRefine((v, ctx) => {
     if (v.AUTH_PROVIDER === "fake-github" && !v.FAKE_GITHUB_URL)

@@ -4,9 +4,11 @@ import { redirect } from "react-router";
 import { auth } from "~/lib/auth/auth.server";
 import { sessions } from "~/lib/auth/session.server";
 import { nextCookie, safeNext } from "./auth.github";
+import { limitSignIn } from "~/lib/limits/rate-limit.server";
 import type { Route } from "./+types/auth.github.callback";
 
 export async function loader({ request }: Route.LoaderArgs) {
+  await limitSignIn(request);
   let userId: string;
   try {
     userId = await auth().authenticate("github", request);

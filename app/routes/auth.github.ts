@@ -2,6 +2,7 @@
 // or the local fake) and a cookie holding the OAuth state.
 import { createCookie, redirect } from "react-router";
 import { auth } from "~/lib/auth/auth.server";
+import { limitSignIn } from "~/lib/limits/rate-limit.server";
 import type { Route } from "./+types/auth.github";
 
 export const nextCookie = createCookie("__hb_next", { httpOnly: true, sameSite: "lax", path: "/", maxAge: 600 });
@@ -15,6 +16,7 @@ export async function loader() {
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  await limitSignIn(request);
   const form = await request.clone().formData().catch(() => new FormData());
   const next = safeNext(form.get("next"));
   try {

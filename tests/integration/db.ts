@@ -11,13 +11,19 @@ const template = process.env.TEST_TEMPLATE_DB ?? "hb_template";
 export const hasDatabase = Boolean(base);
 
 export async function freshDb() {
+  return (await freshDatabase()).db;
+}
+
+/** Like freshDb, with the database's URL too; `empty` copies template0 (no schema) instead. */
+export async function freshDatabase({ empty = false } = {}) {
   if (!base) throw new Error("TEST_DATABASE_BASE is not set: run integration tests through `npm test`.");
   const name = `t_${randomBytes(6).toString("hex")}`;
   const admin = new pg.Client({ connectionString: `${base}/postgres` });
   await admin.connect();
-  await admin.query(`CREATE DATABASE ${name} TEMPLATE ${template}`);
+  await admin.query(`CREATE DATABASE ${name} TEMPLATE ${empty ? "template0" : template}`);
   await admin.end();
-  const db = connect(`${base}/${name}`, 4);
+  const url = `${base}/${name}`;
+  const db = connect(url, 4);
   afterAll(async () => {
     await db.destroy();
     const a = new pg.Client({ connectionString: `${base}/postgres` });
@@ -25,5 +31,5 @@ export async function freshDb() {
     await a.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
     await a.end();
   });
-  return db;
+  return { db, url };
 }

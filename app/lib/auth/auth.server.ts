@@ -9,6 +9,7 @@ import { db } from "../db/db.server";
 import { env } from "../env.server";
 import { fail } from "../web/http.server";
 import { can, type Permission } from "./permissions";
+import { limitApi } from "../limits/rate-limit.server";
 import { sessions } from "./session.server";
 import { findUserByToken } from "../repo/tokens.server";
 import { signInGitHubUser, membershipFor, type GitHubProfile } from "../repo/users.server";
@@ -103,6 +104,7 @@ export async function getSessionUserId(request: Request): Promise<string | null>
  * no workshop the person is told so; a missing permission is a 403.
  */
 export async function requireViewer(request: Request, permission?: Permission): Promise<Viewer> {
+  if (new URL(request.url).pathname.startsWith("/api/")) await limitApi(request);
   const authz = request.headers.get("Authorization");
   let viewer: Viewer | null = null;
   if (authz) {

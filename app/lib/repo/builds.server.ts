@@ -36,7 +36,6 @@ export async function listBuilds(db: Db, scope: Scope, query: BuildQuery) {
     const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     q = q.where((eb) => eb.or([eb("b.name", "ilike", like), eb("b.client_name", "ilike", like), eb("b.hilt_notes", "ilike", like)]));
   }
-  const total = await q.select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow();
   const order = {
     name: sql`lower(b.name)`,
     client: sql`lower(b.client_name)`,
@@ -44,14 +43,21 @@ export async function listBuilds(db: Db, scope: Scope, query: BuildQuery) {
     updated: sql`b.updated_at`,
     created: sql`b.created_at`,
   }[query.sort];
-  const rows = await q
+  // The page and the total in one round trip (a window count); a page past the end has no rows
+  // to carry it, so only then is the total counted on its own (decision 010).
+  const found = await q
     .select(["b.id", "b.name", "b.client_name", "b.status", "b.updated_at", "b.created_at", "b.archived_at"])
+    .select(sql<number>`count(*) over ()`.as("total_count"))
     .orderBy(order, query.dir)
     .orderBy("b.id")
     .limit(query.perPage)
     .offset((query.page - 1) * query.perPage)
     .execute();
-  return { rows, total: Number(total.n) };
+  const total = found.length
+    ? Number(found[0].total_count)
+    : Number((await q.select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+  const rows = found.map(({ total_count: _, ...row }) => row);
+  return { rows, total };
 }
 
 export async function getBuild(db: Db, scope: Scope, id: string) {

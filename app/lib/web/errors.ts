@@ -14,6 +14,7 @@ const TITLES: Record<number, string> = {
   409: "Conflict",
   413: "Too large",
   422: "Not accepted",
+  429: "Too many requests",
   503: "Busy",
 };
 
@@ -22,6 +23,7 @@ function adviceFor(status: number): string {
   if (status === 403) return "Your role in the workshop does not allow this. Ask the workshop's owner if you need it.";
   if (status === 404) return "It may have been deleted or belong to another workshop, or the address is mistyped. Go back to the list and choose it there.";
   if (status === 409) return "Someone changed it meanwhile. Reload the page to see the latest, then make your change again.";
+  if (status === 429) return "Wait the time the message names, then try again.";
   if (status === 503) return "The server is busy; try again in a moment.";
   if (status >= 400 && status < 500) return "Nothing was changed. Go back, correct what the message names, and try again.";
   return "Nothing you saved was lost. Try again in a moment; if it keeps happening, tell whoever runs your workshop's Hiltbench what you were doing.";

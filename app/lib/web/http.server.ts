@@ -2,6 +2,7 @@
 // `fail(...)` (shown by the error boundaries); `failureOf` reads such a throw back, and
 // `apiAnswer` / `textAnswer` turn it into a JSON or plain-text answer for scripts and downloads.
 import { data } from "react-router";
+import { DATABASE_DOWN_MESSAGE, isDatabaseUnavailable } from "../db/unavailable";
 
 export type Failure = { message: string };
 
@@ -53,6 +54,8 @@ export async function apiAnswer(run: () => Promise<Response>): Promise<Response>
     }
     const f = failureOf(e);
     if (f) return json({ error: f.message }, { status: f.status, headers: f.headers });
+    // A connection error that did not come through the app's pool (db/outage.server.ts maps those).
+    if (isDatabaseUnavailable(e)) return json({ error: DATABASE_DOWN_MESSAGE }, { status: 503, headers: { "Retry-After": "10" } });
     throw e;
   }
 }
