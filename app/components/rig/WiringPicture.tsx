@@ -1,0 +1,87 @@
+// The rig's wiring picture on the Rig tab: drawn by the server for the first paint, redrawn in
+// the browser as the rig form changes (the same pure module, so the bytes agree), with the list
+// of connections as its text alternative and the wiring cautions beside it.
+import { useEffect, useRef, useState } from "react";
+import { SafetyCautions } from "~/components/SafetyCautions";
+import { rigSchema, type Config } from "~/lib/config/schema";
+import { rigFromForm } from "~/lib/forms/rig-form";
+
+export type WiringView = { ok: boolean; svg: string; connections: string[]; reasons: string[] };
+
+export function WiringPicture({ initial, config, buildId, title, formId }: { initial: WiringView; config: Config; buildId: string; title: string; formId: string }) {
+  const [view, setView] = useState(initial);
+  const [stale, setStale] = useState(false);
+  const seq = useRef(0);
+  useEffect(() => setView(initial), [initial]);
+  useEffect(() => {
+    const form = document.getElementById(formId) as HTMLFormElement | null;
+    if (!form) return;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const redraw = () => {
+      clearTimeout(timer);
+      timer = setTimeout(async () => {
+        const parsed = rigSchema.safeParse(rigFromForm(new FormData(form)));
+        if (!parsed.success) {
+          setStale(true);
+          return;
+        }
+        const mine = ++seq.current;
+        const { drawWiring } = await import("~/lib/wiring");
+        const picture = await drawWiring({ ...config, rig: parsed.data }, title);
+        if (mine !== seq.current) return;
+        setStale(false);
+        setView(picture.ok ? { ok: true, svg: picture.svg, connections: picture.connections, reasons: [] } : { ok: false, svg: picture.svg, connections: [], reasons: picture.reasons });
+      }, 250);
+    };
+    form.addEventListener("input", redraw);
+    form.addEventListener("change", redraw);
+    // Rows added or removed change the form without an input event.
+    const watch = new MutationObserver(redraw);
+    watch.observe(form, { childList: true, subtree: true });
+    return () => {
+      clearTimeout(timer);
+      form.removeEventListener("input", redraw);
+      form.removeEventListener("change", redraw);
+      watch.disconnect();
+    };
+  }, [config, formId, title]);
+
+  return (
+    <section className="card wiring-print" aria-labelledby="wiring-heading">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h2 id="wiring-heading">Wiring picture</h2>
+        <a className="text-sm underline" href={`/api/builds/${buildId}/wiring.svg`} download={`wiring-${buildId}.svg`}>
+          Download SVG
+        </a>
+      </div>
+      {stale ? (
+        <p role="status" className="mt-2 text-sm text-signal-warning">
+          The picture shows the last rig that made sense; fix the fields marked above to redraw it.
+        </p>
+      ) : null}
+      {!view.ok ? (
+        <div role="alert" className="mt-2 text-sm text-signal-error">
+          <p>The validator refuses this rig, so it is not drawn:</p>
+          <ul className="list-disc pl-5">
+            {view.reasons.slice(0, 8).map((r) => (
+              <li key={r}>{r}</li>
+            ))}
+          </ul>
+        </div>
+      ) : (
+        <>
+          <div className="mt-3 overflow-auto rounded-md bg-white p-2" data-testid="wiring-svg" tabIndex={0} aria-label="Wiring picture, scrollable" dangerouslySetInnerHTML={{ __html: view.svg }} />
+          <details className="mt-3 text-sm">
+            <summary>Connections in words</summary>
+            <ul className="mt-2 list-disc space-y-1 pl-5" data-testid="wiring-connections">
+              {view.connections.map((c, i) => (
+                <li key={i}>{c}</li>
+              ))}
+            </ul>
+          </details>
+        </>
+      )}
+      <SafetyCautions headingLevel={3} className="mt-4" />
+    </section>
+  );
+}
