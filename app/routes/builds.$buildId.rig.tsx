@@ -9,7 +9,6 @@ import { can } from "~/lib/auth/permissions";
 import { saveRig } from "~/lib/builds/builds.server";
 import { rigFromForm } from "~/lib/forms/rig-form";
 import { WiringPicture } from "~/components/rig/WiringPicture";
-import { drawWiring } from "~/lib/wiring";
 import type { Route } from "./+types/builds.$buildId.rig";
 
 export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];
@@ -18,9 +17,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
   const title = `Wiring of ${b.name}`;
-  const picture = await drawWiring(b.config, title);
-  const wiring = picture.ok ? { ok: true, svg: picture.svg, connections: picture.connections, reasons: [] } : { ok: false, svg: picture.svg, connections: [], reasons: picture.reasons };
-  return { rig: b.config.rig, config: b.config, buildId: b.id, title, wiring, version: b.config_version, canEdit: can(v.role, "edit:build") };
+  // The wiring picture is drawn in the browser (a worker): its layout takes too long to hold up the page.
+  return { rig: b.config.rig, config: b.config, buildId: b.id, title, version: b.config_version, canEdit: can(v.role, "edit:build") };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -43,7 +41,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 type RowKey = { key: number };
 
 export default function RigPage({ loaderData }: Route.ComponentProps) {
-  const { rig, config, buildId, title, wiring, version, canEdit } = loaderData;
+  const { rig, config, buildId, title, version, canEdit } = loaderData;
   const result = useActionData<typeof action>();
   const nav = useNavigation();
   const e: Record<string, string> = result?.errors ?? {};
@@ -99,7 +97,7 @@ export default function RigPage({ loaderData }: Route.ComponentProps) {
         </button>
       ) : null}
     </Form>
-    <WiringPicture initial={wiring} config={config} buildId={buildId} title={title} formId="rig-form" />
+    <WiringPicture config={config} buildId={buildId} title={title} formId="rig-form" />
     </>
   );
 }

@@ -1,38 +1,45 @@
-// The rig's wiring picture on the Rig tab: drawn by the server for the first paint, redrawn in
-// the browser as the rig form changes (the same pure module, so the bytes agree), with the list
-// of connections as its text alternative and the wiring cautions beside it.
+// The rig's wiring picture on the Rig tab: drawn in a Web Worker when the page opens and again as
+// the rig form changes (the same pure module as the server's SVG route, so the bytes agree), with
+// the list of connections as its text alternative and the wiring cautions beside it.
 import { useEffect, useRef, useState } from "react";
 import { SafetyCautions } from "~/components/SafetyCautions";
 import { rigSchema, type Config } from "~/lib/config/schema";
 import { rigFromForm } from "~/lib/forms/rig-form";
+import type { WiringReply, WiringRequest } from "./wiring.worker";
 
 export type WiringView = { ok: boolean; svg: string; connections: string[]; reasons: string[] };
 
-export function WiringPicture({ initial, config, buildId, title, formId }: { initial: WiringView; config: Config; buildId: string; title: string; formId: string }) {
-  const [view, setView] = useState(initial);
+export function WiringPicture({ config, buildId, title, formId }: { config: Config; buildId: string; title: string; formId: string }) {
+  const [view, setView] = useState<WiringView | null>(null);
   const [stale, setStale] = useState(false);
   const seq = useRef(0);
-  useEffect(() => setView(initial), [initial]);
   useEffect(() => {
     const form = document.getElementById(formId) as HTMLFormElement | null;
-    if (!form) return;
+    if (!form || typeof Worker === "undefined") return;
+    const worker = new Worker(new URL("./wiring.worker.ts", import.meta.url), { type: "module", name: "wiring" });
+    worker.onmessage = (e: MessageEvent<WiringReply>) => {
+      if (e.data.id !== seq.current) return;
+      if ("error" in e.data) {
+        setStale(true);
+        return;
+      }
+      setStale(false);
+      setView({ ok: e.data.ok, svg: e.data.svg, connections: e.data.connections, reasons: e.data.reasons });
+    };
     let timer: ReturnType<typeof setTimeout> | undefined;
     const redraw = () => {
       clearTimeout(timer);
-      timer = setTimeout(async () => {
+      timer = setTimeout(() => {
         const parsed = rigSchema.safeParse(rigFromForm(new FormData(form)));
         if (!parsed.success) {
+          seq.current++;
           setStale(true);
           return;
         }
-        const mine = ++seq.current;
-        const { drawWiring } = await import("~/lib/wiring");
-        const picture = await drawWiring({ ...config, rig: parsed.data }, title);
-        if (mine !== seq.current) return;
-        setStale(false);
-        setView(picture.ok ? { ok: true, svg: picture.svg, connections: picture.connections, reasons: [] } : { ok: false, svg: picture.svg, connections: [], reasons: picture.reasons });
+        worker.postMessage({ id: ++seq.current, config: { ...config, rig: parsed.data }, title } satisfies WiringRequest);
       }, 250);
     };
+    worker.postMessage({ id: ++seq.current, config, title } satisfies WiringRequest);
     form.addEventListener("input", redraw);
     form.addEventListener("change", redraw);
     // Rows added or removed change the form without an input event.
@@ -43,6 +50,7 @@ export function WiringPicture({ initial, config, buildId, title, formId }: { ini
       form.removeEventListener("input", redraw);
       form.removeEventListener("change", redraw);
       watch.disconnect();
+      worker.terminate();
     };
   }, [config, formId, title]);
 
@@ -55,12 +63,16 @@ export function WiringPicture({ initial, config, buildId, title, formId }: { ini
         </a>
       </div>
       {stale ? (
-        <p role="status" className="mt-2 text-sm text-signal-warning">
+        <p aria-live="polite" className="mt-2 text-sm text-signal-warning">
           The picture shows the last rig that made sense; fix the fields marked above to redraw it.
         </p>
       ) : null}
-      {!view.ok ? (
-        <div role="alert" className="mt-2 text-sm text-signal-error">
+      {!view ? (
+        <p className="mt-2 text-sm text-iron-300" aria-live="polite">
+          Drawing the wiring…
+        </p>
+      ) : !view.ok ? (
+        <div aria-live="polite" className="mt-2 text-sm text-signal-error">
           <p>The validator refuses this rig, so it is not drawn:</p>
           <ul className="list-disc pl-5">
             {view.reasons.slice(0, 8).map((r) => (
