@@ -4,8 +4,11 @@ test("the Rig tab draws the wiring picture, redraws it as the form changes and s
   await signIn("demo-builder");
   const id = await buildIdByName(sql, "Kestrel");
   await page.goto(`/builds/${id}/rig`);
+  test.setTimeout(120_000);
+  // Drawing starts when the picture comes into view; ELK's first layout in a fresh worker is slow on a busy machine.
+  await page.getByRole("heading", { name: "Wiring picture" }).scrollIntoViewIfNeeded();
   const picture = page.getByTestId("wiring-svg");
-  await expect(picture.locator("svg title")).toHaveText("Wiring of Kestrel");
+  await expect(picture.locator("svg title")).toHaveText("Wiring of Kestrel", { timeout: 60_000 });
   await page.getByText("Connections in words").click();
   const words = page.getByTestId("wiring-connections");
   await expect(words).toContainText("Cell positive to the switch: 22 AWG");
@@ -15,7 +18,7 @@ test("the Rig tab draws the wiring picture, redraws it as the form changes and s
   // Put the chamber strip on the blade's pin: the picture redraws before anything is saved.
   const chamberPin = page.locator('input[name="channels.1.pin"]');
   await chamberPin.fill("2");
-  await expect(picture).toContainText("shared-data-pin");
+  await expect(picture).toContainText("shared-data-pin", { timeout: 30_000 });
   await expect(words).toContainText("problem: shared-data-pin");
   await expect(picture.locator('polyline[stroke="#b3261e"]').first()).toBeAttached();
 
@@ -23,7 +26,7 @@ test("the Rig tab draws the wiring picture, redraws it as the form changes and s
   await page.locator('input[name="channels.0.pixels"]').fill("");
   await expect(page.getByText("fix the fields marked above to redraw it")).toBeVisible();
   await page.locator('input[name="channels.0.pixels"]').fill("132");
-  await expect(page.getByText("fix the fields marked above to redraw it")).toBeHidden();
+  await expect(page.getByText("fix the fields marked above to redraw it")).toBeHidden({ timeout: 30_000 });
 
   // Nothing was saved: the stored picture has no conflict.
   const stored = await page.request.get(`/api/builds/${id}/wiring.svg`);

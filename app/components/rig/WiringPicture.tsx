@@ -13,6 +13,7 @@ export function WiringPicture({ config, buildId, title, formId }: { config: Conf
   const [view, setView] = useState<WiringView | null>(null);
   const [stale, setStale] = useState(false);
   const seq = useRef(0);
+  const sectionRef = useRef<HTMLElement>(null);
   useEffect(() => {
     const form = document.getElementById(formId) as HTMLFormElement | null;
     if (!form || typeof Worker === "undefined") return;
@@ -28,6 +29,7 @@ export function WiringPicture({ config, buildId, title, formId }: { config: Conf
     };
     let timer: ReturnType<typeof setTimeout> | undefined;
     const redraw = () => {
+      if (!wanted) return;
       clearTimeout(timer);
       timer = setTimeout(() => {
         const parsed = rigSchema.safeParse(rigFromForm(new FormData(form)));
@@ -39,7 +41,20 @@ export function WiringPicture({ config, buildId, title, formId }: { config: Conf
         worker.postMessage({ id: ++seq.current, config: { ...config, rig: parsed.data }, title } satisfies WiringRequest);
       }, 250);
     };
-    worker.postMessage({ id: ++seq.current, config, title } satisfies WiringRequest);
+    // The layout is real work: start when the picture scrolls into view, not on every visit.
+    let wanted = false;
+    const draw = () => {
+      wanted = true;
+      redraw();
+    };
+    const section = sectionRef.current;
+    const seen = new IntersectionObserver((entries) => {
+      if (entries.some((e) => e.isIntersecting)) {
+        seen.disconnect();
+        draw();
+      }
+    });
+    if (section) seen.observe(section);
     form.addEventListener("input", redraw);
     form.addEventListener("change", redraw);
     // Rows added or removed change the form without an input event.
@@ -50,12 +65,13 @@ export function WiringPicture({ config, buildId, title, formId }: { config: Conf
       form.removeEventListener("input", redraw);
       form.removeEventListener("change", redraw);
       watch.disconnect();
+      seen.disconnect();
       worker.terminate();
     };
   }, [config, formId, title]);
 
   return (
-    <section className="card wiring-print" aria-labelledby="wiring-heading">
+    <section ref={sectionRef} className="card wiring-print" aria-labelledby="wiring-heading">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 id="wiring-heading">Wiring picture</h2>
         <a className="text-sm underline" href={`/api/builds/${buildId}/wiring.svg`} download={`wiring-${buildId}.svg`}>

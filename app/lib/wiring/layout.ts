@@ -100,7 +100,7 @@ export async function layoutWiring(g: WiringGraph): Promise<WiringLayout> {
       "elk.spacing.labelNode": "8",
       "elk.edgeLabels.placement": "CENTER",
       "elk.padding": "[top=24,left=24,bottom=24,right=24]",
-      "elk.layered.nodePlacement.strategy": "NETWORK_SIMPLEX",
+      "elk.layered.thoroughness": "2",
       "elk.randomSeed": "1",
     },
     children,
