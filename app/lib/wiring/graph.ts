@@ -4,9 +4,9 @@
 import type { Config } from "../config/schema";
 import type { Diagnostic } from "../checks/diagnostics";
 import type { PowerSummary } from "../power/estimate";
-import { PEAK_WARN_FRACTION, WIRE_DROP_WARN_FRACTION } from "../checks/rules/power";
+import { PEAK_WARN_FRACTION, WIRE_DROP_WARN_FRACTION } from "../power/thresholds";
 import { wireDropVolts } from "../power/wire";
-import { chassisAmpacity, SAFE_SHARE } from "./ampacity";
+import { chassisAmpacity, SAFE_SHARE } from "../power/ampacity";
 
 export type PartKind = "cell" | "switch" | "board" | "strip" | "button" | "speaker";
 export type LeadKind = "power" | "data" | "input" | "audio";

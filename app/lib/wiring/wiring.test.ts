@@ -3,7 +3,7 @@ import { demoConfig } from "../config/demo";
 import type { Config } from "../config/schema";
 import { powerModeFor } from "../checks/power-mode";
 import { validateConfig } from "../checks/validate";
-import { chassisAmpacity } from "./ampacity";
+import { chassisAmpacity } from "../power/ampacity";
 import { drawWiring, wiringGraph } from "./index";
 import { layoutWiring, type Box } from "./layout";
 
