@@ -32,6 +32,7 @@ export default [
     route("builds", "routes/api.builds.ts"),
     route("builds/:buildId", "routes/api.builds.$buildId.ts"),
     route("builds/:buildId/looks.png", "routes/api.builds.$buildId.looks-png.ts"),
+    route("builds/:buildId/wiring.svg", "routes/api.builds.$buildId.wiring-svg.ts"),
     route("builds/:buildId/config", "routes/api.builds.$buildId.config.ts"),
     route("validate", "routes/api.validate.ts"),
     route("render", "routes/api.render.ts"),

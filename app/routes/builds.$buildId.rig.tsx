@@ -8,6 +8,7 @@ import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/s
 import { can } from "~/lib/auth/permissions";
 import { saveRig } from "~/lib/builds/builds.server";
 import { rigFromForm } from "~/lib/forms/rig-form";
+import { WiringPicture } from "~/components/rig/WiringPicture";
 import type { Route } from "./+types/builds.$buildId.rig";
 
 export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];
@@ -15,7 +16,9 @@ export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
-  return { rig: b.config.rig, version: b.config_version, canEdit: can(v.role, "edit:build") };
+  const title = `Wiring of ${b.name}`;
+  // The wiring picture is drawn in the browser (a worker): its layout takes too long to hold up the page.
+  return { rig: b.config.rig, config: b.config, buildId: b.id, title, version: b.config_version, canEdit: can(v.role, "edit:build") };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -38,12 +41,13 @@ export async function action({ request, params }: Route.ActionArgs) {
 type RowKey = { key: number };
 
 export default function RigPage({ loaderData }: Route.ComponentProps) {
-  const { rig, version, canEdit } = loaderData;
+  const { rig, config, buildId, title, version, canEdit } = loaderData;
   const result = useActionData<typeof action>();
   const nav = useNavigation();
   const e: Record<string, string> = result?.errors ?? {};
   return (
-    <Form method="post" className="space-y-6" key={version}>
+    <>
+    <Form method="post" id="rig-form" className="space-y-6" key={version}>
       <input type="hidden" name="version" value={version} />
       {result?.message ? (
         <p role={result.ok ? "status" : "alert"} className={result.ok ? "text-signal-ok" : "text-signal-error"}>
@@ -93,6 +97,8 @@ export default function RigPage({ loaderData }: Route.ComponentProps) {
         </button>
       ) : null}
     </Form>
+    <WiringPicture config={config} buildId={buildId} title={title} formId="rig-form" />
+    </>
   );
 }
 

@@ -45,6 +45,8 @@ const CASES: Case[] = [
   { route: "/api/builds/:buildId", method: "GET", path: (i) => `/api/builds/${i.harrier}`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.kestrel}/looks.png?preset=ashfall&channel=crystal`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.harrier}/looks.png?preset=glasswind&channel=crystal`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "/api/builds/:buildId/wiring.svg", method: "GET", path: (i) => `/api/builds/${i.kestrel}/wiring.svg`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/wiring.svg", method: "GET", path: (i) => `/api/builds/${i.harrier}/wiring.svg`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/validate", method: "POST", path: () => "/api/validate", json: { notConfig: true }, expect: { ...all("bad"), anonymous: "401" } },
   { route: "/api/validate", method: "GET", path: () => "/api/validate", expect: { ...all("405"), anonymous: "401" } },
   { route: "/api/builds/:buildId/config", method: "GET", path: (i) => `/api/builds/${i.kestrel}/config`, expect: { ...all("ok"), anonymous: "401" } },
