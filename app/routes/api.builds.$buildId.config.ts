@@ -31,7 +31,7 @@ export function action({ request, params }: Route.ActionArgs) {
       fail(400, '"version" must be the whole number config version the config was read at (GET answers it).');
     const note = readMessage(body && typeof body === "object" ? (body as { message?: unknown }).message : undefined);
     if (!note.ok) fail(400, note.error);
-    const r = await storeCheckedConfig(v, b.id, config, version, note.message);
+    const r = await storeCheckedConfig(v, b.id, config, version, { message: note.message });
     if (r.kind === "invalid") return json({ error: r.message, diagnostics: r.diagnostics }, { status: 422 });
     if (r.kind === "stale") return json({ error: r.message, currentVersion: r.currentVersion }, { status: 409 });
     const rev = await getRevision(db(), v.workshop.id, b.id, r.version);

@@ -7,6 +7,7 @@ import { demoConfig } from "~/lib/config/demo";
 import { storeCheckedConfigIn } from "~/lib/checks/save.server";
 import { createBuild, saveConfig } from "~/lib/repo/builds.server";
 import { getRevision, listRevisions, restoreRevision, revisionAuthors } from "~/lib/repo/revisions.server";
+import { validate } from "~/lib/checks/validate";
 import { seed } from "../../db/seed";
 import { freshDb, hasDatabase } from "./db";
 
@@ -21,13 +22,14 @@ describe.runIf(hasDatabase)("config revisions (PostgreSQL)", () => {
     builder = (await db.selectFrom("users").select("id").where("github_login", "=", "demo-builder").executeTakeFirstOrThrow()).id;
     owner = (await db.selectFrom("users").select("id").where("github_login", "=", "demo-owner").executeTakeFirstOrThrow()).id;
   });
+  const Z = { errors: 0, warnings: 0 };
   const meta = { name: "Merlin", clientName: "", clientUserId: null, hiltNotes: "", status: "intake" as const };
 
   it("creates revision 1 with the build and appends one per save, with author, message, counts and the saved time", async () => {
-    const { id } = await createBuild(db, ws, meta, demoConfig(), builder);
+    const { id } = await createBuild(db, ws, meta, demoConfig(), { authorId: builder, counts: Z });
     const cfg = demoConfig();
     cfg.rig.channels[0].pixels = 128;
-    const r = await storeCheckedConfigIn(db, ws, id, cfg, 1, { authorId: owner, message: "  shorter blade " });
+    const r = await storeCheckedConfigIn(db, ws, id, cfg, 1, { author: owner, message: "  shorter blade " });
     expect(r).toMatchObject({ kind: "saved", version: 2 });
     const b = await db.selectFrom("builds").selectAll().where("id", "=", id).executeTakeFirstOrThrow();
     const two = (await getRevision(db, ws, id, 2))!;
@@ -37,20 +39,20 @@ describe.runIf(hasDatabase)("config revisions (PostgreSQL)", () => {
     const one = (await getRevision(db, ws, id, 1))!;
     expect(one).toMatchObject({ number: 1, authorId: builder, message: null });
     expect(one.config.rig.channels[0].pixels).toBe(demoConfig().rig.channels[0].pixels);
-    // The rig form's path (no validation before the save): counts come from the validator.
+    // The rig form's path stores a config with errors it already had: counts from the validator.
     const broken = structuredClone(cfg);
     broken.presets[0].fontId = "no-such-font";
-    expect(await saveConfig(db, ws, id, broken, 2, { authorId: builder })).toBe(3);
+    expect(await storeCheckedConfigIn(db, ws, id, broken, 2, { author: builder, known: () => validate(broken) })).toMatchObject({ kind: "saved", version: 3 });
     expect((await getRevision(db, ws, id, 3))!.errorCount).toBeGreaterThan(0);
   });
 
   it("20 concurrent saves from one base: one success, 19 conflicts, history intact", async () => {
-    const { id } = await createBuild(db, ws, { ...meta, name: "Goshawk" }, demoConfig(), builder);
+    const { id } = await createBuild(db, ws, { ...meta, name: "Goshawk" }, demoConfig(), { authorId: builder, counts: Z });
     const results = await Promise.all(
       Array.from({ length: 20 }, (_, i) => {
         const c = demoConfig();
         c.rig.power.wireLengthMm = 100 + i;
-        return storeCheckedConfigIn(db, ws, id, c, 1, { authorId: builder, message: `try ${i}` });
+        return storeCheckedConfigIn(db, ws, id, c, 1, { author: builder, message: `try ${i}` });
       }),
     );
     expect(results.filter((r) => r.kind === "saved")).toHaveLength(1);
@@ -66,11 +68,11 @@ describe.runIf(hasDatabase)("config revisions (PostgreSQL)", () => {
   });
 
   it("restores an old revision as a new one, stale-checked, and lists, sorts, filters and pages", async () => {
-    const { id } = await createBuild(db, ws, { ...meta, name: "Sparrowhawk" }, demoConfig(), builder);
+    const { id } = await createBuild(db, ws, { ...meta, name: "Sparrowhawk" }, demoConfig(), { authorId: builder, counts: Z });
     for (let i = 0; i < 5; i++) {
       const c = demoConfig();
       c.rig.power.wireLengthMm = 200 + i;
-      expect(await saveConfig(db, ws, id, c, i + 1, { authorId: i % 2 ? owner : builder, message: `step ${i}` })).toBe(i + 2);
+      expect(await saveConfig(db, ws, id, c, i + 1, { authorId: i % 2 ? owner : builder, message: `step ${i}`, counts: Z })).toBe(i + 2);
     }
     expect(await restoreRevision(db, ws, id, 2, 5, builder)).toEqual({ kind: "stale" });
     expect(await restoreRevision(db, ws, id, 99, 6, builder)).toEqual({ kind: "missing" });

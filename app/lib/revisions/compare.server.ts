@@ -7,7 +7,7 @@ import { fail } from "../web/http.server";
 import { diffModels, type Change } from "../model-diff";
 import { diffTexts, type TextDiff } from "../text-diff/text-diff";
 import { getRevision, type RevisionWithConfig } from "../repo/revisions.server";
-import { API_LIMITS, apiErrors, renderBuildWith, resolveTemplate, type ResolvedTemplate } from "../rendering/service.server";
+import { renderBuildOrSource, resolveTemplate, type ResolvedTemplate } from "../rendering/service.server";
 
 type Build = { id: string; name: string; client_name: string; pinned_template_id: string | null; pinned_template_version: number | null };
 
@@ -32,8 +32,9 @@ export async function templateForRevision(v: Viewer, r: { templateId: string | n
 
 /** A revision rendered: the build's name, the revision's number and save time. */
 export async function renderRevision(v: Viewer, b: Build, r: RevisionWithConfig, t: ResolvedTemplate) {
-  const out = await renderBuildWith(v, { name: b.name, client_name: b.client_name, config_saved_at: r.createdAt, config_version: r.number, config: r.config }, t, API_LIMITS);
-  if (!out.ok) fail(422, `Revision ${r.number} does not render with ${t.name} v${t.version}: ${apiErrors(out, API_LIMITS).map((e) => e.message).join("; ")}`);
+  const build = { name: b.name, client_name: b.client_name, config_saved_at: r.createdAt, config_version: r.number, config: r.config, pinned_template_id: r.templateId, pinned_template_version: r.templateVersion };
+  const out = await renderBuildOrSource(v, { build }, t);
+  if (out.kind === "failed") fail(422, `Revision ${r.number} does not render with ${t.name} v${t.version}: ${out.errors.map((e) => e.message).join("; ")}`);
   return out;
 }
 
