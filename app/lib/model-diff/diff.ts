@@ -24,26 +24,28 @@ export type ModelDiff = { delta: Delta; changes: Change[] };
 
 const isObj = (v: unknown): v is Record<string, unknown> => typeof v === "object" && v !== null && !Array.isArray(v);
 
+/** Lists whose items hold further keyed lists (a preset's looks hold layers); the others are leaves here. */
+const NESTS = new Set(["presets"]);
+
 /** Keys for every keyed list item on both sides, walking matched items in parallel. */
 function assignKeys(a: unknown, b: unknown, props: string[], keys: WeakMap<object, string>) {
+  if (a === b || typeof a !== "object" || typeof b !== "object" || a === null || b === null) return;
   if (Array.isArray(a) && Array.isArray(b)) {
     const k = keysFor(props, a, b);
-    if (!k) {
-      for (let i = 0; i < Math.min(a.length, b.length); i++) assignKeys(a[i], b[i], props, keys);
-      return;
-    }
+    if (!k) return; // lists of values or of unkeyed records hold no keyed lists in this model
     const byKey = new Map<string, unknown>();
     a.forEach((x, i) => {
       if (x && typeof x === "object") keys.set(x, k.a[i]);
       byKey.set(k.a[i], x);
     });
+    const nests = NESTS.has(props[props.length - 1]);
     b.forEach((x, i) => {
       if (x && typeof x === "object") keys.set(x, k.b[i]);
-      if (byKey.has(k.b[i])) assignKeys(byKey.get(k.b[i]), x, props, keys);
+      if (nests && byKey.has(k.b[i])) assignKeys(byKey.get(k.b[i]), x, props, keys);
     });
     return;
   }
-  if (isObj(a) && isObj(b)) for (const key of Object.keys(a)) if (key in b) assignKeys(a[key], b[key], [...props, key], keys);
+  if (isObj(a) && isObj(b)) for (const key of Object.keys(a)) if (key in b && typeof a[key] === "object") assignKeys(a[key], b[key], [...props, key], keys);
 }
 
 function differ(a: unknown, b: unknown) {

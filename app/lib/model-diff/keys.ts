@@ -49,11 +49,15 @@ const sortOf = (x: unknown) => {
   return String(o.kind ?? o.event ?? "");
 };
 
-/** Content keys for one side with no reference: hash, plus occurrence for duplicates. */
+/**
+ * Content keys for one side with no reference: hash, plus occurrence for duplicates. Plain
+ * JSON text (not the sorted form): the same layer written with its fields in another order gets
+ * another hash, and the pairing pass below still matches it to its counterpart as an edit.
+ */
 export function contentKeys(items: readonly unknown[]): string[] {
   const seen = new Map<string, number>();
   return items.map((x) => {
-    const h = hash(stableJson(x));
+    const h = hash(JSON.stringify(x) ?? "null");
     const n = (seen.get(h) ?? 0) + 1;
     seen.set(h, n);
     return n === 1 ? h : `${h}#${n}`;
