@@ -10,6 +10,9 @@ import type pg from "pg";
 import { demoConfig } from "../../app/lib/config/demo";
 import { test, expect, signInAs, tokenFor, BASE_URL } from "./fixtures";
 
+// Several pages, two browsers and renders per test: room for a busy machine.
+test.describe.configure({ timeout: 120_000 });
+
 /** A build of our own with revision 1, so other specs' edits of Kestrel do not meet ours. */
 async function newBuild(sql: pg.Pool, name: string): Promise<string> {
   const ws = (await sql.query("SELECT workshop_id FROM builds WHERE name = 'Kestrel' LIMIT 1")).rows[0].workshop_id;
