@@ -6,9 +6,8 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
 import { apiAnswer, fail, json } from "~/lib/web/http.server";
-import { db } from "~/lib/db/db.server";
-import { getRevision } from "~/lib/repo/revisions.server";
-import { readMessage } from "~/lib/revisions/message";
+import { getRevisionFor } from "~/lib/revisions/compare.server";
+import { readMessage } from "~/lib/forms/revision-message";
 import type { Route } from "./+types/api.builds.$buildId.config";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -34,7 +33,7 @@ export function action({ request, params }: Route.ActionArgs) {
     const r = await storeCheckedConfig(v, b.id, config, version, { message: note.message });
     if (r.kind === "invalid") return json({ error: r.message, diagnostics: r.diagnostics }, { status: 422 });
     if (r.kind === "stale") return json({ error: r.message, currentVersion: r.currentVersion }, { status: 409 });
-    const rev = await getRevision(db(), v.workshop.id, b.id, r.version);
+    const rev = await getRevisionFor(v, b.id, r.version);
     return json({
       version: r.version,
       revision: rev ? { number: rev.number, savedAt: rev.createdAt.toISOString(), message: rev.message, url: `/api/builds/${b.id}/revisions/${rev.number}` } : { number: r.version },

@@ -3,8 +3,7 @@
 // /api/builds/:buildId/revisions/:n).
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { db } from "~/lib/db/db.server";
-import { listRevisions } from "~/lib/repo/revisions.server";
+import { listRevisionsFor } from "~/lib/revisions/compare.server";
 import { readListQuery } from "~/lib/revisions/params";
 import { apiAnswer, fail, json } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.revisions";
@@ -15,7 +14,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const b = await loadBuildFor(v, params.buildId);
     const q = readListQuery(new URL(request.url).searchParams);
     if (!q.ok) fail(400, q.error);
-    const { rows, total } = await listRevisions(db(), v.workshop.id, b.id, q.value);
+    const { rows, total } = await listRevisionsFor(v, b.id, q.value);
     return json({
       buildId: b.id,
       current: b.config_version,

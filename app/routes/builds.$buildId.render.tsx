@@ -2,7 +2,7 @@
 // picker, copy and download, pinning a workshop template version, and reading a generic header
 // (possibly hand-edited) back into the model to check it and make it the build's config.
 import { MessageField } from "~/components/revisions/MessageField";
-import { readMessage } from "~/lib/revisions/message";
+import { readMessage } from "~/lib/forms/revision-message";
 import { useState } from "react";
 import { data, Form, Link, useFetcher, useSubmit } from "react-router";
 import { CodeFrame } from "~/components/templates/CodeFrame";

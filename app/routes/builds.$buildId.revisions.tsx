@@ -5,8 +5,7 @@ import { data, Form, Link, useNavigation, useSearchParams } from "react-router";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { can } from "~/lib/auth/permissions";
-import { db } from "~/lib/db/db.server";
-import { listRevisions, restoreRevision, revisionAuthors } from "~/lib/repo/revisions.server";
+import { listRevisionsFor, restoreRevisionFor, revisionAuthorsFor } from "~/lib/revisions/compare.server";
 import { readListQuery, readRevisionNumber } from "~/lib/revisions/params";
 import { fail } from "~/lib/web/http.server";
 import type { Route } from "./+types/builds.$buildId.revisions";
@@ -21,7 +20,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const b = await loadBuildFor(v, params.buildId);
   const q = readListQuery(new URL(request.url).searchParams);
   if (!q.ok) fail(400, q.error);
-  const [{ rows, total }, authors] = await Promise.all([listRevisions(db(), v.workshop.id, b.id, q.value), revisionAuthors(db(), v.workshop.id, b.id)]);
+  const [{ rows, total }, authors] = await Promise.all([listRevisionsFor(v, b.id, q.value), revisionAuthorsFor(v, b.id)]);
   return {
     buildId: b.id,
     current: b.config_version,
@@ -42,7 +41,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!n.ok) return data({ ok: false, message: n.error }, { status: 400 });
   const expected = Number(form.get("version"));
   if (!Number.isInteger(expected) || expected < 1) return data({ ok: false, message: "The form must carry the config version the page was read at; reload and try again." }, { status: 400 });
-  const r = await restoreRevision(db(), v.workshop.id, b.id, n.value, expected, v.user.id);
+  const r = await restoreRevisionFor(v, b.id, n.value, expected);
   if (r.kind === "missing") return data({ ok: false, message: `This build has no revision ${n.value}.` }, { status: 404 });
   if (r.kind === "stale") return data({ ok: false, message: "Someone saved this build since you opened the page; nothing was restored. Reload to see their revision." }, { status: 409 });
   return { ok: true, message: `Revision ${n.value} restored as revision ${r.number}.` };

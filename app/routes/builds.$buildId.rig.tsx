@@ -3,7 +3,7 @@ import { data, Form, useActionData, useNavigation } from "react-router";
 import { Field, Select } from "~/components/Field";
 import { MessageField } from "~/components/revisions/MessageField";
 import { requireViewer } from "~/lib/auth/auth.server";
-import { readMessage } from "~/lib/revisions/message";
+import { readMessage } from "~/lib/forms/revision-message";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { fieldErrors } from "~/lib/forms/form-errors";
 import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/schema";

@@ -1,5 +1,5 @@
 // The optional "what changed" line every config save form offers; it becomes the revision's message.
-import { MESSAGE_MAX } from "~/lib/revisions/message";
+import { MESSAGE_MAX } from "~/lib/forms/revision-message";
 
 export function MessageField({ id, className, value, onChange }: { id: string; className?: string; value?: string; onChange?: (v: string) => void }) {
   return (

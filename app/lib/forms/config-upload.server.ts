@@ -1,7 +1,7 @@
 // Reading a config file posted from a form: the whole request is capped before the multipart
 // body is parsed, the file is read as UTF-8 JSON with the same depth cap as the API, and a file
 // holding the API's `{ config, version }` answer is accepted as the config inside it.
-import { readMessage } from "../revisions/message";
+import { readMessage } from "./revision-message";
 import { MAX_CONFIG_BYTES, parseJsonText, readBodyLimited } from "../web/body.server";
 import { fail } from "../web/http.server";
 

@@ -6,7 +6,7 @@ import { db } from "../db/db.server";
 import { fail } from "../web/http.server";
 import { diffModels, type Change } from "../model-diff";
 import { diffTexts, type TextDiff } from "../text-diff/text-diff";
-import { getRevision, type RevisionWithConfig } from "../repo/revisions.server";
+import { getRevision, listRevisions, restoreRevision, revisionAuthors, type RevisionQuery, type RevisionWithConfig } from "../repo/revisions.server";
 import { renderBuildOrSource, resolveTemplate, type ResolvedTemplate } from "../rendering/service.server";
 
 type Build = { id: string; name: string; client_name: string; pinned_template_id: string | null; pinned_template_version: number | null };
@@ -74,4 +74,19 @@ export async function compareRevisions(v: Viewer, b: Build, fromN: number, toN: 
     model: diffModels(from.config, to.config).changes,
     text: diffTexts(fileLabel(b.name, fromN, ext), fileLabel(b.name, toN, ext), ra.output, rb.output),
   };
+}
+
+// The revisions pages and API as the viewer's workshop sees them (routes do not hold the db).
+export function listRevisionsFor(v: Viewer, buildId: string, q: RevisionQuery) {
+  return listRevisions(db(), v.workshop.id, buildId, q);
+}
+export function revisionAuthorsFor(v: Viewer, buildId: string) {
+  return revisionAuthors(db(), v.workshop.id, buildId);
+}
+export function getRevisionFor(v: Viewer, buildId: string, n: number) {
+  return getRevision(db(), v.workshop.id, buildId, n);
+}
+/** Restore revision n as a new revision by this viewer. */
+export function restoreRevisionFor(v: Viewer, buildId: string, n: number, expectedVersion: number) {
+  return restoreRevision(db(), v.workshop.id, buildId, n, expectedVersion, v.user.id);
 }
