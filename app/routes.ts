@@ -19,6 +19,8 @@ export default [
       route("looks", "routes/builds.$buildId.looks.tsx"),
       route("render", "routes/builds.$buildId.render.tsx"),
       route("checks", "routes/builds.$buildId.checks.tsx"),
+      route("revisions", "routes/builds.$buildId.revisions.tsx"),
+      route("compare", "routes/builds.$buildId.compare.tsx"),
     ]),
     route("workshop", "routes/workshop.tsx"),
     route("account", "routes/account.tsx"),
@@ -37,6 +39,9 @@ export default [
     route("validate", "routes/api.validate.ts"),
     route("render", "routes/api.render.ts"),
     route("builds/:buildId/render", "routes/api.builds.$buildId.render.ts"),
+    route("builds/:buildId/revisions", "routes/api.builds.$buildId.revisions.ts"),
+    route("builds/:buildId/revisions/:n", "routes/api.builds.$buildId.revisions.$n.ts"),
+    route("builds/:buildId/diff", "routes/api.builds.$buildId.diff.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

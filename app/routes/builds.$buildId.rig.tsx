@@ -1,7 +1,9 @@
 import { useState } from "react";
 import { data, Form, useActionData, useNavigation } from "react-router";
 import { Field, Select } from "~/components/Field";
+import { MessageField } from "~/components/revisions/MessageField";
 import { requireViewer } from "~/lib/auth/auth.server";
+import { readMessage } from "~/lib/forms/revision-message";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { fieldErrors } from "~/lib/forms/form-errors";
 import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/schema";
@@ -27,15 +29,17 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = await request.formData();
   const parsed = rigSchema.safeParse(rigFromForm(form));
   if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error), message: "Some fields need fixing; nothing was saved." }, { status: 400 });
+  const note = readMessage(form.get("message"));
+  if (!note.ok) return data({ ok: false as const, errors: { message: note.error } as Record<string, string>, message: note.error }, { status: 400 });
   const expected = Number(form.get("version"));
-  const saved = await saveRig(v, b, parsed.data, expected);
+  const saved = await saveRig(v, b, parsed.data, expected, note.message);
   if (saved.kind === "invalid") return data({ ok: false as const, errors: saved.fieldErrors, message: saved.message }, { status: 422 });
   if (saved.kind === "stale")
     return data(
       { ok: false as const, errors: {}, message: "Someone saved this build since you opened it. Reload to see their change; nothing was saved." },
       { status: 409 },
     );
-  return { ok: true as const, errors: {} as Record<string, string>, message: "Rig saved." };
+  return { ok: true as const, errors: {} as Record<string, string>, message: `Rig saved as revision ${saved.version}.` };
 }
 
 type RowKey = { key: number };
@@ -92,9 +96,12 @@ export default function RigPage({ loaderData }: Route.ComponentProps) {
         </div>
       </section>
       {canEdit ? (
-        <button type="submit" className="btn btn-primary" disabled={nav.state !== "idle"}>
-          Save rig
-        </button>
+        <div className="flex flex-wrap items-end gap-3">
+          <MessageField id="rig-message" className="min-w-64 flex-1" />
+          <button type="submit" className="btn btn-primary" disabled={nav.state !== "idle"}>
+            Save rig
+          </button>
+        </div>
       ) : null}
     </Form>
     <WiringPicture config={config} buildId={buildId} title={title} formId="rig-form" />

@@ -15,6 +15,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return {
     build: { id: b.id, name: b.name, status: b.status, client_name: b.client_name, archived: b.archived_at !== null },
     canEdit: can(v.role, "edit:build"),
+    canViewRevisions: can(v.role, "view:revisions"),
   };
 }
 
@@ -28,10 +29,11 @@ const SECTIONS = [
   ["looks", "Looks"],
   ["checks", "Checks"],
   ["render", "Render"],
+  ["revisions", "Revisions"],
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
-  const { build } = loaderData;
+  const { build, canViewRevisions } = loaderData;
   return (
     <div>
       <div className="flex flex-wrap items-baseline gap-3">
@@ -41,7 +43,7 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <span className="text-iron-400">{build.client_name}</span>
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
-        {SECTIONS.map(([to, label]) => (
+        {SECTIONS.filter(([to]) => to !== "revisions" || canViewRevisions).map(([to, label]) => (
           <NavLink key={to} to={to} end={to === "."} className={tab}>
             {label}
           </NavLink>

@@ -70,6 +70,15 @@ const CASES: Case[] = [
   { route: "/api/render", method: "GET", path: () => "/api/render", expect: { ...all("405"), anonymous: "401" } },
   { route: "/api/builds/:buildId/render", method: "GET", path: (i) => `/api/builds/${i.kestrel}/render`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/render", method: "GET", path: (i) => `/api/builds/${i.harrier}/render?template=readable-copy`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  // Revisions and comparisons: staff and reviewers; clients see none (decision 012).
+  { route: "/builds/:buildId/revisions", method: "GET", path: (i) => `/builds/${i.kestrel}/revisions`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/revisions", method: "POST", path: (i) => `/builds/${i.kestrel}/revisions`, form: { intent: "restore", n: "" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId/compare", method: "GET", path: (i) => `/builds/${i.kestrel}/compare?from=1&to=1`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/compare", method: "GET", path: (i) => `/builds/${i.kestrel}/compare?from=x&to=1`, expect: { ...staff("bad", "403"), reviewer: "bad" } },
+  { route: "/api/builds/:buildId/revisions", method: "GET", path: (i) => `/api/builds/${i.kestrel}/revisions`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/revisions/:n", method: "GET", path: (i) => `/api/builds/${i.kestrel}/revisions/1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/diff", method: "GET", path: (i) => `/api/builds/${i.kestrel}/diff?from=1&to=1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/diff", method: "GET", path: (i) => `/api/builds/${i.harrier}/diff?from=1`, expect: { ...staff("bad", "403", "401"), reviewer: "bad" } },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 

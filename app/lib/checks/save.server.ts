@@ -23,6 +23,9 @@ export type StoreOptions = {
    * A function is called only when the new config has errors (validating costs up to a second).
    */
   known?: readonly Diagnostic[] | (() => readonly Diagnostic[]);
+  /** The revision's author (the viewer) and optional "what changed" message. */
+  author?: string | null;
+  message?: string | null;
 };
 
 const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.path === b.path;
@@ -41,7 +44,8 @@ export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: str
     const n = errors.length;
     return { kind: "invalid", message: `The config has ${n} error${n === 1 ? "" : "s"}; nothing was stored.`, diagnostics, errors };
   }
-  const version = await saveConfig(db, workshopId, buildId, config, expectedVersion);
+  const counts = { errors: diagnostics.filter((d) => d.severity === "error").length, warnings: diagnostics.filter((d) => d.severity === "warning").length };
+  const version = await saveConfig(db, workshopId, buildId, config, expectedVersion, { authorId: opts.author ?? null, message: opts.message, counts });
   if (version === null) {
     const current = await currentConfigVersion(db, workshopId, buildId);
     return {
@@ -53,7 +57,7 @@ export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: str
   return { kind: "saved", version, diagnostics };
 }
 
-/** Replace the build's config as this viewer's workshop. */
+/** Replace the build's config as this viewer's workshop; the viewer is the revision's author. */
 export function storeCheckedConfig(v: Viewer, buildId: string, input: unknown, expectedVersion: number, opts: StoreOptions = {}): Promise<StoreResult> {
-  return storeCheckedConfigIn(appDb(), v.workshop.id, buildId, input, expectedVersion, opts);
+  return storeCheckedConfigIn(appDb(), v.workshop.id, buildId, input, expectedVersion, { ...opts, author: v.user.id });
 }
