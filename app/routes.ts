@@ -8,6 +8,7 @@ export default [
   route("logout", "routes/logout.ts"),
   route("healthz", "routes/healthz.ts"),
   route("builds/:buildId/config.json", "routes/builds.$buildId.config-json.ts"),
+  route("builds/:buildId/fonts/audio/:sha256", "routes/builds.$buildId.fonts.audio.ts"),
   route("templates/:templateId/compare.patch", "routes/templates.$templateId.compare-patch.ts"),
 
   layout("routes/app-layout.tsx", [
@@ -19,6 +20,7 @@ export default [
       route("looks", "routes/builds.$buildId.looks.tsx"),
       route("render", "routes/builds.$buildId.render.tsx"),
       route("checks", "routes/builds.$buildId.checks.tsx"),
+      route("fonts", "routes/builds.$buildId.fonts.tsx"),
     ]),
     route("workshop", "routes/workshop.tsx"),
     route("account", "routes/account.tsx"),
@@ -36,6 +38,7 @@ export default [
     route("validate", "routes/api.validate.ts"),
     route("render", "routes/api.render.ts"),
     route("builds/:buildId/render", "routes/api.builds.$buildId.render.ts"),
+    route("builds/:buildId/fonts/:fontId/files", "routes/api.builds.$buildId.fonts.$fontId.files.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

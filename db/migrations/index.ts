@@ -6,6 +6,7 @@ import * as m0300 from "./20261202_0300_templates";
 import * as m0400 from "./20261202_0400_template_delete";
 import * as m0500 from "./20261202_0500_config_saved_at";
 import * as m0600 from "./20261202_0600_template_version_uses";
+import * as m0800 from "./20261202_0800_fonts";
 
 export const migrations: Record<string, Migration> = {
   "20261202_0001_foundation": m0001,
@@ -13,4 +14,5 @@ export const migrations: Record<string, Migration> = {
   "20261202_0400_template_delete": m0400,
   "20261202_0500_config_saved_at": m0500,
   "20261202_0600_template_version_uses": m0600,
+  "20261202_0800_fonts": m0800,
 };
