@@ -28,7 +28,7 @@ const wav = (frames: number, f?: number) => simpleWav(tone(frames, f));
 function formRequest(files: { name: string; bytes: Uint8Array }[], fields: Record<string, string> = {}) {
   const form = new FormData();
   for (const [k, v] of Object.entries(fields)) form.append(k, v);
-  for (const f of files) form.append("files", new Blob([f.bytes]), f.name);
+  for (const f of files) form.append("files", new Blob([Buffer.from(f.bytes)]), f.name);
   return new Request("http://127.0.0.1/upload", { method: "POST", body: form });
 }
 
