@@ -55,13 +55,13 @@ try {
     cleanups.push(cluster.stop);
     databaseUrl = `${cluster.baseUrl}/hiltbench`;
   }
-  runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl });
+  // The fakes start first: with HB_STORAGE=s3 the seed's demo fonts go to the fake S3.
+  const fakes = await startFakes({ FAKE_GITHUB_PORT: process.env.FAKE_GITHUB_PORT ?? "0" });
+  cleanups.push(() => fakes.child.kill());
+  runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl, ...fakes.settings });
 
   const secretFile = path.join(dataDir, "session-secret");
   if (!existsSync(secretFile)) writeFileSync(secretFile, randomBytes(32).toString("hex"), { mode: 0o600 });
-
-  const fakes = await startFakes({ FAKE_GITHUB_PORT: process.env.FAKE_GITHUB_PORT ?? "0" });
-  cleanups.push(() => fakes.child.kill());
 
   buildApp();
   const app = await startApp({
