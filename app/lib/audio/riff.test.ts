@@ -124,6 +124,34 @@ describe("RIFF/WAVE layout (IBM/Microsoft Multimedia Programming Interface and D
     expect(half.peakDbfs!).toBeCloseTo(-6.02, 1);
   });
 
+  it("reads Node Buffers that are views at odd offsets of a shared pool (as file streams hand them)", () => {
+    const samples = tone(3001, 1).map((x, i) => (i === 1500 ? 1 : i === 2000 ? -1 : x));
+    for (const [bits, float] of [[16, false], [24, false], [32, false], [32, true], [64, true]] as const) {
+      const bytes = simpleWav(samples, { bits, float });
+      const pool = Buffer.alloc(bytes.length + 4096);
+      const r = new WavReader();
+      // Each piece is a Buffer view into the pool at an odd offset, of an odd length.
+      for (let i = 0, at = 1; i < bytes.length; i += 1001, at += 1003) {
+        const piece = bytes.subarray(i, i + 1001);
+        const view = pool.subarray(at % 3001, (at % 3001) + piece.length);
+        view.set(piece);
+        r.push(view);
+      }
+      const ours = r.finish();
+      expect([bits, float, ours.findings]).toEqual([bits, float, []]);
+      expect(ours.peak).toBe(1);
+      expect(ours.clippedSamples).toBe(2);
+      expect(ours).toEqual(readWav(bytes));
+    }
+  });
+
+  it("counts NaN and infinite float samples and keeps the finite peak", () => {
+    const r = readWav(simpleWav([0.5, NaN, Infinity, -0.25], { bits: 32, float: true }));
+    expect(r.findings.map((f) => f.code)).toEqual(["non-finite-samples"]);
+    expect(r.peak).toBe(0.5);
+    expect(r.clippedSamples).toBe(1);
+  });
+
   it("warns when block align and byte rate disagree with the channels and depth", () => {
     const fmt = fmtBody({ channels: 2, rate: 44100, bits: 16 });
     new DataView(fmt.buffer).setUint16(12, 3, true);

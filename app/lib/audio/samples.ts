@@ -22,6 +22,26 @@ function kindOf(f: WavFormat): Kind | null {
 
 const WIDTH: Record<Kind, number> = { u8: 1, i16: 2, i24: 3, i32: 4, f32: 4, f64: 8 };
 
+/** Smallest and largest value, in two lanes so the loop has no branches to mispredict. */
+function minMax(a: Uint8Array | Int16Array | Int32Array): [number, number] {
+  let lo0 = a[0] ?? 0, hi0 = lo0, lo1 = lo0, hi1 = lo0;
+  const n = a.length;
+  let k = 0;
+  for (; k + 2 <= n; k += 2) {
+    const v = a[k];
+    const w = a[k + 1];
+    lo0 = Math.min(lo0, v);
+    hi0 = Math.max(hi0, v);
+    lo1 = Math.min(lo1, w);
+    hi1 = Math.max(hi1, w);
+  }
+  if (k < n) {
+    lo0 = Math.min(lo0, a[k]);
+    hi0 = Math.max(hi0, a[k]);
+  }
+  return [Math.min(lo0, lo1), Math.max(hi0, hi1)];
+}
+
 export function createSampleScanner(format: WavFormat): SampleScanner | null {
   const kind = kindOf(format);
   if (!kind || format.channels === 0) return null;
@@ -70,101 +90,85 @@ export function createSampleScanner(format: WavFormat): SampleScanner | null {
     },
   };
 
-  /** Scan whole samples in bytes[from, to). */
+  /**
+   * Scan whole samples in bytes[from, to). The hot loops only track min and max (Math.min/max
+   * in two lanes, which V8 compiles without branches); clipped samples are counted in a second
+   * pass only over a piece whose extremes reach full scale, which clean audio never does.
+   */
   function run(bytes: Uint8Array, from: number, to: number) {
-    const off = bytes.byteOffset + from;
     const n = (to - from) / width;
     if (kind === "u8") {
-      let lo = min;
-      let hi = max;
-      let c = 0;
-      for (let k = from; k < to; k++) {
-        const v = bytes[k];
-        if (v < lo) lo = v;
-        if (v > hi) hi = v;
-        if (v === 0 || v === 255) c++;
-      }
-      min = lo;
-      max = hi;
-      scanner.clipped += c;
+      const [lo, hi] = minMax(bytes.subarray(from, to));
+      if (lo < min) min = lo;
+      if (hi > max) max = hi;
+      if (lo === 0 || hi === 255) for (let k = from; k < to; k++) if (bytes[k] === 0 || bytes[k] === 255) scanner.clipped++;
       return;
     }
     if (kind === "i24") {
-      let lo = min;
-      let hi = max;
-      let c = 0;
-      for (let k = from; k < to; k += 3) {
+      let lo0 = 0, hi0 = 0, lo1 = 0, hi1 = 0;
+      let k = from;
+      for (; k + 6 <= to; k += 6) {
         const v = ((bytes[k] | (bytes[k + 1] << 8) | (bytes[k + 2] << 16)) << 8) >> 8;
-        if (v < lo) lo = v;
-        if (v > hi) hi = v;
-        if (v === 8388607 || v === -8388608) c++;
+        const w = ((bytes[k + 3] | (bytes[k + 4] << 8) | (bytes[k + 5] << 16)) << 8) >> 8;
+        lo0 = Math.min(lo0, v);
+        hi0 = Math.max(hi0, v);
+        lo1 = Math.min(lo1, w);
+        hi1 = Math.max(hi1, w);
       }
-      min = lo;
-      max = hi;
-      scanner.clipped += c;
+      for (; k < to; k += 3) {
+        const v = ((bytes[k] | (bytes[k + 1] << 8) | (bytes[k + 2] << 16)) << 8) >> 8;
+        lo0 = Math.min(lo0, v);
+        hi0 = Math.max(hi0, v);
+      }
+      const lo = Math.min(lo0, lo1);
+      const hi = Math.max(hi0, hi1);
+      if (lo < min) min = lo;
+      if (hi > max) max = hi;
+      if (lo === -8388608 || hi === 8388607)
+        for (let j = from; j < to; j += 3) {
+          const v = ((bytes[j] | (bytes[j + 1] << 8) | (bytes[j + 2] << 16)) << 8) >> 8;
+          if (v === 8388607 || v === -8388608) scanner.clipped++;
+        }
       return;
     }
-    // Typed arrays need the byte offset aligned to the sample width; copy when it is not.
+    // Typed arrays need the byte offset aligned to the sample width; copy when it is not
+    // (new Uint8Array(view) copies; a Node Buffer's slice would not).
     let buf = bytes.buffer;
-    let start = off;
-    if (off % width !== 0) {
-      const copy = bytes.slice(from, to);
+    let start = bytes.byteOffset + from;
+    if (start % width !== 0) {
+      const copy = new Uint8Array(bytes.subarray(from, to));
       buf = copy.buffer;
       start = 0;
     }
-    if (kind === "i16") {
-      const a = new Int16Array(buf, start, n);
-      let lo = min;
-      let hi = max;
-      let c = 0;
-      for (let k = 0; k < n; k++) {
-        const v = a[k];
-        if (v < lo) lo = v;
-        else if (v > hi) hi = v;
-        if (v === 32767 || v === -32768) c++;
-      }
-      min = lo;
-      max = hi;
-      scanner.clipped += c;
-    } else if (kind === "i32") {
-      const a = new Int32Array(buf, start, n);
-      let lo = min;
-      let hi = max;
-      let c = 0;
-      for (let k = 0; k < n; k++) {
-        const v = a[k];
-        if (v < lo) lo = v;
-        else if (v > hi) hi = v;
-        if (v === 2147483647 || v === -2147483648) c++;
-      }
-      min = lo;
-      max = hi;
-      scanner.clipped += c;
-    } else {
-      const a = kind === "f32" ? new Float32Array(buf, start, n) : new Float64Array(buf, start, n);
-      let p = fpeak;
-      let c = 0;
-      let bad = 0;
-      for (let k = 0; k < n; k++) {
-        const v = a[k];
-        const m = v < 0 ? -v : v;
-        if (m > p) p = m;
-        if (m >= 1) c++;
-        else if (m !== m) bad++;
-      }
-      // Infinity counts as clipped above; count it as non-finite as well.
-      if (p === Infinity) {
-        for (let k = 0; k < n; k++) if (a[k] === Infinity || a[k] === -Infinity) bad++;
-        p = fpeak;
-        for (let k = 0; k < n; k++) {
-          const m = Math.abs(a[k]);
-          if (m > p && m !== Infinity) p = m;
-        }
-      }
-      fpeak = p;
-      scanner.clipped += c;
-      scanner.nonFinite += bad;
+    if (kind === "i16" || kind === "i32") {
+      const a = kind === "i16" ? new Int16Array(buf, start, n) : new Int32Array(buf, start, n);
+      const [lo, hi] = minMax(a);
+      if (lo < min) min = lo;
+      if (hi > max) max = hi;
+      const top = kind === "i16" ? 32767 : 2147483647;
+      if (lo === -top - 1 || hi === top) for (let k = 0; k < n; k++) if (a[k] === top || a[k] === -top - 1) scanner.clipped++;
+      return;
     }
+    const a = kind === "f32" ? new Float32Array(buf, start, n) : new Float64Array(buf, start, n);
+    let p0 = 0, p1 = 0;
+    let k = 0;
+    for (; k + 2 <= n; k += 2) {
+      p0 = Math.max(p0, Math.abs(a[k]));
+      p1 = Math.max(p1, Math.abs(a[k + 1]));
+    }
+    if (k < n) p0 = Math.max(p0, Math.abs(a[k]));
+    const p = Math.max(p0, p1);
+    // NaN poisons Math.max, so a NaN or a full-scale peak sends the piece through the careful pass.
+    if (p >= 1 || p !== p) {
+      let q = fpeak;
+      for (let j = 0; j < n; j++) {
+        const m = Math.abs(a[j]);
+        if (m !== m || m === Infinity) scanner.nonFinite++;
+        else if (m > q) q = m;
+        if (m >= 1) scanner.clipped++;
+      }
+      fpeak = q;
+    } else if (p > fpeak) fpeak = p;
   }
   return scanner;
 }
