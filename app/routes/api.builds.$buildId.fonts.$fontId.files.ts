@@ -1,11 +1,11 @@
 // POST /api/builds/:buildId/fonts/:fontId/files: a multipart upload of WAV files and/or zips
 // for one font of the build. Answers the font report, or a refusal with a specific message;
 // a refused upload changes nothing.
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { uploadFont } from "~/lib/fonts/service.server";
 import { UploadRefused } from "~/lib/fonts/zip.server";
-import { apiAnswer, fail, json } from "~/lib/http.server";
+import { apiAnswer, fail, json } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.fonts.$fontId.files";
 
 export function action({ request, params }: Route.ActionArgs) {

@@ -2,11 +2,11 @@
 // audio preview, with HTTP Range support so players can seek. Only a viewer who may open the
 // build gets it, and only files some upload of this build holds.
 import { Readable } from "node:stream";
-import { requireViewer } from "~/lib/auth.server";
-import { loadBuildFor } from "~/lib/build-access.server";
-import { db } from "~/lib/db.server";
+import { requireViewer } from "~/lib/auth/auth.server";
+import { loadBuildFor } from "~/lib/auth/build-access.server";
+import { db } from "~/lib/db/db.server";
 import { parseRange } from "~/lib/fonts/range";
-import { fail } from "~/lib/http.server";
+import { fail } from "~/lib/web/http.server";
 import { storedFileOfBuild } from "~/lib/repo/fonts.server";
 import { storage } from "~/lib/storage/settings.server";
 import type { Route } from "./+types/builds.$buildId.fonts.audio";

@@ -5,7 +5,7 @@
 // save leaves the build as it was (bytes already in storage are content-addressed and untouched).
 import { createReadStream } from "node:fs";
 import type { Kysely } from "kysely";
-import { storeCheckedConfigIn } from "../config-store.server";
+import { storeCheckedConfigIn } from "../checks/save.server";
 import type { Config } from "../config/schema";
 import type { Database } from "../db/types";
 import type { FileStorage } from "../storage/types";

@@ -1,8 +1,8 @@
 // The font upload as one call for routes: receive (stream, caps, zip checks), accept (checks,
 // storage, one transaction with the config save), and always remove the staging folder.
 import { rm } from "node:fs/promises";
-import type { Viewer } from "../auth.server";
-import { db } from "../db.server";
+import type { Viewer } from "../auth/auth.server";
+import { db } from "../db/db.server";
 import { listLayouts } from "../repo/fonts.server";
 import { storage, storageSettings } from "../storage/settings.server";
 import { acceptUpload, type Accepted } from "./accept.server";
