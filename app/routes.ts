@@ -39,6 +39,7 @@ export default [
     route("render", "routes/api.render.ts"),
     route("builds/:buildId/render", "routes/api.builds.$buildId.render.ts"),
     route("builds/:buildId/fonts/:fontId/files", "routes/api.builds.$buildId.fonts.$fontId.files.ts"),
+    route("builds/:buildId/bundle", "routes/api.builds.$buildId.bundle.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

@@ -60,6 +60,15 @@ test("a builder uploads a zip of WAVs with progress, reads the report and plays 
 
   await page.goto(`/builds/${id}`);
   await expect(page.getByTestId("arrival-Northlight")).toContainText("arrived");
+
+  // The card zip holds the new font's files, and the same inputs give the same bytes.
+  const first = await page.request.get(`/api/builds/${id}/bundle`);
+  expect(first.status()).toBe(200);
+  expect(first.headers()["content-type"]).toBe("application/zip");
+  const again = await page.request.get(`/api/builds/${id}/bundle`);
+  expect((await again.body()).equals(await first.body())).toBe(true);
+  const plan = await (await page.request.get(`/api/builds/${id}/bundle?check=1`)).json();
+  expect(plan.files.map((f: { path: string }) => f.path)).toContain("northlight/ignite.wav");
 });
 
 test("a hostile zip is refused with its reason and a cancelled upload stores nothing", async ({ page, signIn, sql }) => {

@@ -79,6 +79,9 @@ const CASES: Case[] = [
   { route: "/builds/:buildId/fonts/audio/:sha256", method: "GET", path: (i) => `/builds/${i.harrier}/fonts/audio/${i.harrierSound}`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
   // A file that exists, asked for through a build that does not hold it.
   { route: "/builds/:buildId/fonts/audio/:sha256", method: "GET", path: (i) => `/builds/${i.kestrel}/fonts/audio/${"0".repeat(64)}`, expect: { ...all("404"), anonymous: "login" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.harrier}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?names=9.9`, expect: { ...all("bad"), anonymous: "401" } },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 

@@ -54,3 +54,20 @@ export async function saveLayout(db: Db, workshopId: string, name: string, rules
     .onConflict((oc) => oc.columns(["workshop_id", "name"]).doUpdateSet({ rules: JSON.stringify(rules) }))
     .execute();
 }
+
+/** The files of each font's newest upload, with where their bytes are (for the card bundle). */
+export async function latestFontFiles(db: Db, buildId: string) {
+  const latest = await latestUploads(db, buildId);
+  const out = new Map<string, { path: string; size: number; sha256: string; key: string }[]>();
+  for (const u of latest) {
+    const rows = await db
+      .selectFrom("font_files as f")
+      .innerJoin("stored_files as s", "s.sha256", "f.sha256")
+      .select(["f.path", "f.size", "f.sha256", "s.key"])
+      .where("f.upload_id", "=", u.id)
+      .orderBy("f.path")
+      .execute();
+    out.set(u.font_id, rows);
+  }
+  return out;
+}
