@@ -5,6 +5,9 @@ import { synthFont } from "../../app/lib/audio/synth";
 import { buildZip } from "../../app/lib/fonts/zip-build";
 import { test, expect, BASE_URL } from "./fixtures";
 
+// Uploads go through a throttled link on purpose (to see the progress bar); give them room.
+test.describe.configure({ timeout: 90_000 });
+
 async function freshBuild(sql: import("pg").Pool, name: string) {
   const src = await sql.query("SELECT workshop_id, config FROM builds WHERE name = 'Kestrel' ORDER BY created_at LIMIT 1");
   const r = await sql.query("INSERT INTO builds (workshop_id, name, status, config) VALUES ($1, $2, 'configuring', $3) RETURNING id", [src.rows[0].workshop_id, name, JSON.stringify(src.rows[0].config)]);
