@@ -4,17 +4,16 @@
 import { Readable } from "node:stream";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { db } from "~/lib/db/db.server";
 import { parseRange } from "~/lib/fonts/range";
 import { fail } from "~/lib/web/http.server";
-import { storedFileOfBuild } from "~/lib/repo/fonts.server";
+import { fontFileOfBuild } from "~/lib/fonts/service.server";
 import { storage } from "~/lib/storage/settings.server";
 import type { Route } from "./+types/builds.$buildId.fonts.audio";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
-  const file = await storedFileOfBuild(db(), b.id, params.sha256);
+  const file = await fontFileOfBuild(b.id, params.sha256);
   if (!file) fail(404, "This build has no font file with that checksum.");
   const range = parseRange(request.headers.get("range"), file.size);
   const headers = new Headers({ "Content-Type": "audio/wav", "Accept-Ranges": "bytes", "Cache-Control": "private, max-age=3600", ETag: `"${file.sha256}"` });

@@ -8,13 +8,11 @@ import { FontUpload } from "~/components/fonts/FontUpload";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
-import { db } from "~/lib/db/db.server";
 import { parseLayoutText } from "~/lib/fonts/layout";
 import type { FontReport } from "~/lib/fonts/report";
-import { layoutsFor } from "~/lib/fonts/service.server";
+import { fontUploadsOf, layoutsFor, saveWorkshopLayout } from "~/lib/fonts/service.server";
 import { fail } from "~/lib/web/http.server";
 import { can } from "~/lib/auth/permissions";
-import { filesOfUpload, latestUploads, saveLayout } from "~/lib/repo/fonts.server";
 import type { Route } from "./+types/builds.$buildId.fonts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Fonts · Hiltbench" }];
@@ -24,13 +22,14 @@ const ARRIVAL = { promised: "Promised", received: "Arrived", invalid: "Arrived b
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
-  const uploads = await latestUploads(db(), b.id);
+  const uploads = await fontUploadsOf(b.id);
   const fonts = await Promise.all(
     b.config.fonts.map(async (f) => {
-      const up = uploads.find((u) => u.font_id === f.id);
+      const found = uploads.find((u) => u.upload.font_id === f.id);
+      const up = found?.upload;
       let files: ReportFile[] = [];
-      if (up) {
-        const rows = await filesOfUpload(db(), up.id);
+      if (found && up) {
+        const rows = found.files;
         const report = up.report as FontReport;
         files = rows.map((r) => {
           const info = report.files.find((x) => x.path === r.path);
@@ -95,7 +94,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (parsed.data.name.toLowerCase() === "hiltbench default") return data({ intent, error: "That name belongs to the built-in layout; choose another." }, { status: 400 });
     const layout = parseLayoutText(parsed.data.name, parsed.data.rules);
     if (!layout.ok) return data({ intent, error: layout.errors.join(" ") }, { status: 400 });
-    await saveLayout(db(), v.workshop.id, layout.layout.name, layout.layout.rules);
+    await saveWorkshopLayout(v, layout.layout);
     return { intent, error: null };
   }
   fail(400, "Unknown action.");

@@ -5,25 +5,8 @@
 // Specifications 1.0, 1991) and Microsoft's WAVEFORMATEXTENSIBLE documentation.
 import { createSampleScanner, type SampleScanner } from "./samples";
 
-export type Severity = "error" | "warning" | "info";
-export type AudioFinding = { severity: Severity; code: string; message: string };
-
-export type WavEncoding = "pcm" | "float";
-export type WavFormat = {
-  /** The fmt chunk's format tag: 1 PCM, 3 IEEE float, 0xFFFE extensible. */
-  formatTag: number;
-  extensible: boolean;
-  /** What the samples are (for extensible files, from the SubFormat GUID). */
-  encoding: WavEncoding | null;
-  subFormat: string | null;
-  channels: number;
-  sampleRate: number;
-  bitsPerSample: number;
-  validBits: number;
-  blockAlign: number;
-  byteRate: number;
-  channelMask: number | null;
-};
+import type { AudioFinding, Severity, WavEncoding, WavFormat } from "./types";
+export type { AudioFinding, Severity, WavEncoding, WavFormat } from "./types";
 
 export type WavReport = {
   ok: boolean;

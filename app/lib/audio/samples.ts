@@ -2,7 +2,7 @@
 // through typed arrays where the bytes are aligned (the fast path) and byte by byte otherwise;
 // a sample split between two pieces is carried over. 8-bit samples are unsigned (silence 128),
 // wider ones signed, floats are full scale at ±1 (RIFF/WAVE specification).
-import type { WavFormat } from "./riff";
+import type { WavFormat } from "./types";
 
 export type SampleScanner = {
   scan(bytes: Uint8Array, at: number, length: number): void;

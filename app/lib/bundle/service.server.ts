@@ -4,27 +4,27 @@
 import type { Viewer } from "../auth/auth.server";
 import { db } from "../db/db.server";
 import { downloadName } from "../rendering/render";
-import { API_LIMITS, apiErrors, pinnedTemplate, renderBuildWith, resolveTemplate } from "../rendering/service.server";
+import { API_LIMITS, chooseTemplateForBuild, renderBuildOrSource, resolveTemplate, type RenderableBuild } from "../rendering/service.server";
 import { latestFontFiles } from "../repo/fonts.server";
 import { fail } from "../web/http.server";
 import type { NameMode } from "./names";
 import { planBundle, type BundlePlan } from "./plan";
 
-type BuildRow = Parameters<typeof renderBuildWith>[1] & { id: string; pinned_template_id: string | null; pinned_template_version: number | null; config: import("../config/schema").Config };
+type BuildRow = RenderableBuild & { id: string; config: import("../config/schema").Config };
 
 export async function bundleFor(v: Viewer, b: BuildRow, opts: { template: string | null; mode: NameMode; cardGb: number }): Promise<BundlePlan & { name: string }> {
-  const t = opts.template ? await resolveTemplate(v, opts.template) : await pinnedTemplate(v, b);
-  const r = await renderBuildWith(v, b, t, API_LIMITS);
-  if (!r.ok) fail(422, `The config does not render with template ${t.name}: ${apiErrors(r, API_LIMITS)[0]?.message ?? "error"}`);
+  const t = await chooseTemplateForBuild(v, b, opts.template);
+  const r = await renderBuildOrSource(v, { build: b }, t, API_LIMITS);
+  if (r.kind !== "rendered") fail(422, `The config does not render with template ${t.name}: ${r.errors[0]?.message ?? "error"}`);
   const readableT = await resolveTemplate(v, "readable-copy");
-  const readable = await renderBuildWith(v, b, readableT, API_LIMITS);
+  const readable = await renderBuildOrSource(v, { build: b }, readableT, API_LIMITS);
   const files = await latestFontFiles(db(), b.id);
   const plan = planBundle({
     buildName: b.name,
     clientName: b.client_name,
     config: b.config,
     rendered: { name: downloadName(b.name, t.name, r.target), text: r.output },
-    readable: readable.ok ? { name: "readable-config.txt", text: readable.output } : null,
+    readable: readable.kind === "rendered" ? { name: "readable-config.txt", text: readable.output } : null,
     fonts: b.config.fonts.map((f) => ({ id: f.id, name: f.name, folder: f.folder, status: f.status, files: files.get(f.id) ?? [] })),
     mode: opts.mode,
     cardBytes: opts.cardGb * 1e9,

@@ -3,7 +3,7 @@
 import { rm } from "node:fs/promises";
 import type { Viewer } from "../auth/auth.server";
 import { db } from "../db/db.server";
-import { listLayouts } from "../repo/fonts.server";
+import { filesOfUpload, latestUploads, listLayouts, saveLayout, storedFileOfBuild } from "../repo/fonts.server";
 import { storage, storageSettings } from "../storage/settings.server";
 import { acceptUpload, type Accepted } from "./accept.server";
 import { DEFAULT_LAYOUT, fontLayoutSchema, type FontLayout } from "./layout";
@@ -28,4 +28,18 @@ export async function uploadFont(v: Viewer, buildId: string, fontId: string, req
   } finally {
     await rm(received.dir, { recursive: true, force: true });
   }
+}
+
+/** The Fonts tab's rows: each font's newest upload and its files. */
+export async function fontUploadsOf(buildId: string) {
+  const uploads = await latestUploads(db(), buildId);
+  return Promise.all(uploads.map(async (u) => ({ upload: u, files: await filesOfUpload(db(), u.id) })));
+}
+
+export function saveWorkshopLayout(v: Viewer, layout: FontLayout) {
+  return saveLayout(db(), v.workshop.id, layout.name, layout.rules);
+}
+
+export function fontFileOfBuild(buildId: string, sha256: string) {
+  return storedFileOfBuild(db(), buildId, sha256);
 }
