@@ -8,6 +8,7 @@ export default [
   route("logout", "routes/logout.ts"),
   route("healthz", "routes/healthz.ts"),
   route("builds/:buildId/config.json", "routes/builds.$buildId.config-json.ts"),
+  route("builds/:buildId/fonts/audio/:sha256", "routes/builds.$buildId.fonts.audio.ts"),
   route("templates/:templateId/compare.patch", "routes/templates.$templateId.compare-patch.ts"),
 
   layout("routes/app-layout.tsx", [
@@ -21,6 +22,7 @@ export default [
       route("checks", "routes/builds.$buildId.checks.tsx"),
       route("revisions", "routes/builds.$buildId.revisions.tsx"),
       route("compare", "routes/builds.$buildId.compare.tsx"),
+      route("fonts", "routes/builds.$buildId.fonts.tsx"),
     ]),
     route("workshop", "routes/workshop.tsx"),
     route("account", "routes/account.tsx"),
@@ -42,6 +44,8 @@ export default [
     route("builds/:buildId/revisions", "routes/api.builds.$buildId.revisions.ts"),
     route("builds/:buildId/revisions/:n", "routes/api.builds.$buildId.revisions.$n.ts"),
     route("builds/:buildId/diff", "routes/api.builds.$buildId.diff.ts"),
+    route("builds/:buildId/fonts/:fontId/files", "routes/api.builds.$buildId.fonts.$fontId.files.ts"),
+    route("builds/:buildId/bundle", "routes/api.builds.$buildId.bundle.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

@@ -22,11 +22,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const tab = ({ isActive }: { isActive: boolean }) =>
   `border-b-2 px-3 py-2 text-sm no-underline ${isActive ? "border-ember-500 text-iron-100" : "border-transparent text-iron-300 hover:text-iron-100"}`;
 
-/** The build's sections, in the order the work goes: rig, looks, checks, then the rendered config. */
+/** The build's sections, in the order the work goes: rig, looks, fonts, checks, then the rendered config. */
 const SECTIONS = [
   [".", "Overview"],
   ["rig", "Rig"],
   ["looks", "Looks"],
+  ["fonts", "Fonts"],
   ["checks", "Checks"],
   ["render", "Render"],
   ["revisions", "Revisions"],

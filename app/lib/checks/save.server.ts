@@ -26,6 +26,11 @@ export type StoreOptions = {
   /** The revision's author (the viewer) and optional "what changed" message. */
   author?: string | null;
   message?: string | null;
+  /**
+   * Error codes that do not stop this save. A font upload records a font whose files failed
+   * their checks ("font-invalid"): the build is then truthfully in error, and says why.
+   */
+  acceptErrors?: readonly string[];
 };
 
 const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.path === b.path;
@@ -33,7 +38,7 @@ const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.
 /** The same with the database passed in (tests, transactions). */
 export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: string, buildId: string, input: unknown, expectedVersion: number, opts: StoreOptions = {}): Promise<StoreResult> {
   const { config, diagnostics } = validateConfig(input, { power: powerModeFor(input) });
-  let errors = diagnostics.filter((d) => d.severity === "error");
+  let errors = diagnostics.filter((d) => d.severity === "error" && !opts.acceptErrors?.includes(d.code));
   if (errors.length > 0 && opts.known) {
     const known = typeof opts.known === "function" ? opts.known() : opts.known;
     errors = errors.filter((d) => !known.some((k) => sameDiagnostic(k, d)));

@@ -125,6 +125,43 @@ export interface ApiTokensTable {
   revoked_at: Date | null;
 }
 
+export interface StoredFilesTable {
+  sha256: string;
+  size: number;
+  storage: "disk" | "s3";
+  key: string;
+  created_at: Timestamp;
+}
+
+export interface FontUploadsTable {
+  id: Generated<string>;
+  build_id: string;
+  font_id: string;
+  layout_name: string;
+  status: "received" | "invalid";
+  /** The font report (app/lib/fonts/report.ts) as it was when the files were accepted. */
+  report: ColumnType<unknown, string, string>;
+  uploaded_by: string | null;
+  created_at: Timestamp;
+}
+
+export interface FontFilesTable {
+  upload_id: string;
+  path: string;
+  sha256: string;
+  size: number;
+  cue: string | null;
+  duration_ms: number;
+}
+
+export interface FontLayoutsTable {
+  id: Generated<string>;
+  workshop_id: string;
+  name: string;
+  rules: ColumnType<{ cue: string; pattern: string }[], string, string>;
+  created_at: Timestamp;
+}
+
 export interface Database {
   workshops: WorkshopsTable;
   users: UsersTable;
@@ -136,6 +173,10 @@ export interface Database {
   templates: TemplatesTable;
   template_versions: TemplateVersionsTable;
   config_revisions: ConfigRevisionsTable;
+  stored_files: StoredFilesTable;
+  font_uploads: FontUploadsTable;
+  font_files: FontFilesTable;
+  font_layouts: FontLayoutsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
