@@ -30,7 +30,7 @@ test("a builder creates a build, edits it and its rig, and archives it", async (
   await bladePixels.fill("144");
   await page.getByLabel("Brightness cap").fill("0.5");
   await page.getByRole("button", { name: "Save rig" }).click();
-  await expect(page.getByRole("status")).toHaveText("Rig saved.");
+  await expect(page.getByRole("status")).toHaveText(/^Rig saved as revision \d+\.$/);
   await page.reload();
   await expect(bladePixels).toHaveValue("144");
 
@@ -40,7 +40,7 @@ test("a builder creates a build, edits it and its rig, and archives it", async (
   await page.locator('input[name="channels.3.pixels"]').fill("12");
   await page.locator('input[name="channels.3.pin"]').fill("5");
   await page.getByRole("button", { name: "Save rig" }).click();
-  await expect(page.getByRole("status")).toHaveText("Rig saved.");
+  await expect(page.getByRole("status")).toHaveText(/^Rig saved as revision \d+\.$/);
   await expect(page.locator('input[name="channels.3.name"]')).toHaveValue("Emitter ring");
 
   await page.getByRole("link", { name: "Overview" }).click();
@@ -86,7 +86,7 @@ test("a stale rig save is refused and the newer save is kept", async ({ browser,
   await b.goto(`/builds/${id}/rig`);
   await a.getByLabel("Wire gauge").fill("20");
   await a.getByRole("button", { name: "Save rig" }).click();
-  await expect(a.getByRole("status")).toHaveText("Rig saved.");
+  await expect(a.getByRole("status")).toHaveText(/^Rig saved as revision \d+\.$/);
   await b.getByLabel("Wire gauge").fill("24");
   await b.getByRole("button", { name: "Save rig" }).click();
   await expect(b.getByRole("alert")).toContainText("Someone saved this build since you opened it");
