@@ -77,7 +77,7 @@ test("a diagnostic quotes its line with a caret under the column, and a refused 
     expect(await versionCount(sql, id)).toBe(1);
 
     // Fixed, it saves, and the list of refused errors goes away.
-    await replaceSource(page, "@( config.rig.channels[0].pixels )@ pixels\nClient: @( meta.clientName )@\n");
+    await replaceSource(page, "@( config.rig.channels[0].pixels )@ pixels\nBuild: @( meta.buildName )@\n");
     await expect(page.getByTestId("problems-none")).toBeVisible();
     await page.getByRole("button", { name: "Save as version 2" }).click();
     await expect(page.getByTestId("save-status")).toHaveText("Saved version 2.");

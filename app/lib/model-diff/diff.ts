@@ -170,7 +170,8 @@ function walkList(delta: ArrayDelta, a: unknown[], b: unknown[], props: string[]
     const after = b[at];
     // The item before: the same key on the a side (it may have moved).
     const before = findBefore(delta, a, at);
-    const crumb = itemCrumb(prop, after, at + 1);
+    // A renamed item is named as it was known before the change ("Preset Ashfall: name Ashfall → …").
+    const crumb = itemCrumb(prop, before !== undefined && before !== null ? before : after, at + 1);
     walk(sub, before, after, [...props, "#item"], [...where, crumb], rest, root);
   }
   out.push(...removed, ...moved, ...rest);
