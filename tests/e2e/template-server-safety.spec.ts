@@ -158,7 +158,9 @@ test("the template editor page never runs the template on the server, and in the
       lags.push(performance.now() - t);
     }
     console.log(`editor tab during a runaway preview: a frame in ${lags.map((l) => `${l.toFixed(0)} ms`).join(", ")}`);
-    expect(Math.max(...lags)).toBeLessThan(300);
+    // A preview on the main thread would hold the tab for the editor's whole 2 s clock; 600 ms
+    // leaves room for the editor's first paint on a 2-core machine (318 ms seen once in CI).
+    expect(Math.max(...lags)).toBeLessThan(600);
     await expect(page.getByText("Checking the template…")).toBeVisible();
     await expect(page.getByTestId("problems")).toContainText("rendering took longer than the time limit", { timeout: 15_000 });
     await expect(page.getByTestId("preview-failed")).toBeVisible();
