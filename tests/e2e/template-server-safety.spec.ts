@@ -59,7 +59,7 @@ test.describe("a runaway template does not hold up the server", () => {
 
     for (const h of health) {
       expect(h.status).toBe(200);
-      expect(h.ms).toBeLessThan(300);
+      expect(h.ms).toBeLessThan(450);
     }
     expect(health.reduce((s, h) => s + h.ms, 0) + 50).toBeLessThan(runawayMs);
     expect(answered.status()).toBe(422);
@@ -80,7 +80,8 @@ test.describe("a runaway template does not hold up the server", () => {
     const quick = api.post("/api/render", { data: { config, template: { source: "@( config.presets |> count )@ presets" } } });
     const health = await timedHealth(other);
     expect(health.status).toBe(200);
-    expect(health.ms).toBeLessThan(300);
+    // Under 450 ms: a render on the event loop would hold /healthz for the whole 500 ms limit; two busy workers on 2 cores left 343 ms once.
+    expect(health.ms).toBeLessThan(450);
     const done = await quick;
     expect(done.status()).toBe(200);
     expect(await done.text()).toBe(`${config.presets.length} presets`);
@@ -118,7 +119,7 @@ test("the Render view stops a runaway workshop template at the API's limit and t
     const answered = await page;
     const ms = performance.now() - t0;
     expect(health.status).toBe(200);
-    expect(health.ms).toBeLessThan(300);
+    expect(health.ms).toBeLessThan(450);
     expect(answered.status()).toBe(200);
     const html = await answered.text();
     expect(html).toContain("The template did not render this build:");
