@@ -154,3 +154,22 @@ test("bad review input gets a clear 4xx and changes nothing", async ({ page, sig
     await sql.query("DELETE FROM builds WHERE id = $1", [id]);
   }
 });
+
+test("the overview refuses setting in review or approved by hand, and changes nothing", async ({ page, signIn, sql }) => {
+  const id = await newBuild(sql, `Goshawk ${Date.now()}`);
+  try {
+    await signIn("demo-owner");
+    await page.goto(`/builds/${id}`);
+    for (const [value, says] of [
+      ["approved", "approved by its reviewers' verdicts"],
+      ["in-review", "goes into review when someone asks for a review"],
+    ] as const) {
+      await page.getByLabel("Status").selectOption(value);
+      await page.getByRole("button", { name: "Save details" }).click();
+      await expect(page.locator(".field-error").filter({ hasText: says })).toBeVisible();
+      expect((await sql.query("SELECT status FROM builds WHERE id = $1", [id])).rows[0].status).toBe("configuring");
+    }
+  } finally {
+    await sql.query("DELETE FROM builds WHERE id = $1", [id]);
+  }
+});

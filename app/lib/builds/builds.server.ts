@@ -12,7 +12,7 @@ import { db } from "../db/db.server";
 import { createBuild, listBuilds, listClients, setArchived, updateBuildMeta, type BuildMeta, type BuildQuery } from "../repo/builds.server";
 import { rigErrorsForForm } from "../forms/rig-form";
 import type { BuildStatus } from "../db/types";
-import { manualStatusError } from "../review/rules";
+import { manualStatusError } from "./status";
 
 /** The builds this viewer may see (a client only their own), one page of them. */
 export function buildsFor(v: Viewer, query: BuildQuery) {

@@ -20,17 +20,10 @@ export function buildStatusFor(state: ReviewState): BuildStatus {
   return state === "open" ? "in-review" : state === "approved" ? "approved" : "configuring";
 }
 
-/**
- * "In review" and "approved" follow the reviews, never a hand edit; "released" only follows
- * "approved" (release itself is another feature). Null when the change is allowed.
- */
-export function manualStatusError(from: BuildStatus, to: BuildStatus): string | null {
-  if (from === to) return null;
-  if (to === "in-review") return "A build goes into review when someone asks for a review on the Reviews tab.";
-  if (to === "approved") return "A build is approved by its reviewers' verdicts on the Reviews tab, not by hand.";
-  if (to === "released" && from !== "approved") return "Only an approved build can be released.";
-  return null;
-}
+// The hand-set status rule lives with the builds (builds/status.ts), which apply it on the
+// overview's save; builds/ must not import review/ (review/ renders through rendering/, which
+// reaches builds/).
+export { manualStatusError } from "../builds/status";
 
 /**
  * A model path: dot-separated keys and array indices into the config (`presets.0.looks`).
