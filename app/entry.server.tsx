@@ -7,6 +7,10 @@ import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import { securityHeaders } from "./lib/web/security.server";
+import { startBackgroundWork } from "./lib/mail/mailer.server";
+
+// The mail queue's worker starts with the server (lazily, in the background; not under vitest).
+startBackgroundWork();
 
 export const streamTimeout = 5_000;
 

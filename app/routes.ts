@@ -10,6 +10,9 @@ export default [
   route("builds/:buildId/config.json", "routes/builds.$buildId.config-json.ts"),
   route("builds/:buildId/fonts/audio/:sha256", "routes/builds.$buildId.fonts.audio.ts"),
   route("templates/:templateId/compare.patch", "routes/templates.$templateId.compare-patch.ts"),
+  // Development mailbox (404 in production unless HB_DEV_MAILBOX=1).
+  route("dev/mailbox", "routes/dev.mailbox._index.tsx"),
+  route("dev/mailbox/:messageId", "routes/dev.mailbox.$messageId.tsx"),
 
   layout("routes/app-layout.tsx", [
     route("builds", "routes/builds._index.tsx"),
@@ -23,6 +26,8 @@ export default [
       route("revisions", "routes/builds.$buildId.revisions.tsx"),
       route("compare", "routes/builds.$buildId.compare.tsx"),
       route("fonts", "routes/builds.$buildId.fonts.tsx"),
+      route("reviews", "routes/builds.$buildId.reviews._index.tsx"),
+      route("reviews/:requestId", "routes/builds.$buildId.reviews.$requestId.tsx"),
     ]),
     route("workshop", "routes/workshop.tsx"),
     route("account", "routes/account.tsx"),

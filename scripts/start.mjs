@@ -1,6 +1,6 @@
 // `npm start`: install what is missing, start PostgreSQL on 127.0.0.1 (kept in .data/, durable
 // settings, SCRAM passwords, an app role that is not a superuser), migrate, seed the demo
-// workshop, start the local fakes and serve the app. An app server that dies is started again
+// workshop, start the local fakes (GitHub sign-in, an SMTP sink) and serve the app. An app server that dies is started again
 // with backoff; Ctrl-C stops the app, the fakes and PostgreSQL, in that order.
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, writeFileSync, rmSync } from "node:fs";
@@ -62,7 +62,7 @@ try {
     databaseUrl = ensureAppRole(cluster);
   }
   // The fakes start first: with HB_STORAGE=s3 the seed's demo fonts go to the fake S3.
-  const fakes = await startFakes({ FAKE_GITHUB_PORT: process.env.FAKE_GITHUB_PORT ?? "0" });
+  const fakes = await startFakes({ FAKE_GITHUB_PORT: process.env.FAKE_GITHUB_PORT ?? "0", FAKE_SMTP_PORT: process.env.FAKE_SMTP_PORT ?? "0", MAIL_SINK_DATABASE_URL: databaseUrl });
   cleanups.push(() => stopChild(fakes.child));
   runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl, ...fakes.settings });
 
@@ -77,13 +77,15 @@ try {
     SESSION_SECRET: process.env.SESSION_SECRET ?? readFileSync(secretFile, "utf8"),
     APP_URL: process.env.APP_URL ?? url,
     AUTH_PROVIDER: process.env.AUTH_PROVIDER ?? "fake-github",
+    // The local mailbox page (/dev/mailbox) shows what the mail sink received.
+    HB_DEV_MAILBOX: process.env.HB_DEV_MAILBOX ?? "1",
     ...fakes.settings,
   };
   const app = supervise("the app server", () => spawnApp(appEnv, { quiet: true }));
   app.adopt(await startApp(appEnv, { quiet: true }));
   cleanups.push(() => app.stop());
   log(`ready in ${((Date.now() - started) / 1000).toFixed(1)} s`);
-  console.log(`\n  Hiltbench is running at ${url}\n  Sign in with the local GitHub stand-in as demo-owner, demo-builder, demo-reviewer or a client.\n`);
+  console.log(`\n  Hiltbench is running at ${url}\n  Sign in with the local GitHub stand-in as demo-owner, demo-builder, demo-reviewer or a client.\n  Mail the app sends arrives in ${url}/dev/mailbox\n`);
 } catch (e) {
   console.error(`[hiltbench] ${e instanceof Error ? e.message : e}`);
   await shutdown(1);

@@ -73,7 +73,7 @@ try {
   }
 
   if (only !== "unit" && only !== "system") {
-    const fakes = await startFakes({ FAKE_GITHUB_PORT: "0" });
+    const fakes = await startFakes({ FAKE_GITHUB_PORT: "0", FAKE_SMTP_PORT: "0", MAIL_SINK_DATABASE_URL: `${base}/hb_e2e` });
     cleanups.push(stopChild(fakes.child));
     buildApp();
     const port = String(await freePort());
@@ -85,6 +85,8 @@ try {
       SESSION_SECRET: randomBytes(24).toString("hex"),
       APP_URL: `http://127.0.0.1:${port}`,
       AUTH_PROVIDER: "fake-github",
+      HB_DEV_MAILBOX: "1", // the e2e suite runs the production build and reads mail back through /dev/mailbox
+      MAIL_RETRY_DELAY_SECONDS: "1",
       ...fakes.settings,
     };
     const app = await startApp(env, { quiet: true });

@@ -48,10 +48,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
   if (intent !== "save") fail(400, "Unknown action.");
   const v = await requireViewer(request, "edit:build");
-  await loadBuildFor(v, params.buildId);
+  const current = await loadBuildFor(v, params.buildId);
   const parsed = buildMetaSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error) }, { status: 400 });
-  const r = await updateDetails(v, params.buildId, parsed.data);
+  const r = await updateDetails(v, current, parsed.data);
   if (!r.ok) return data({ ok: false as const, errors: r.errors }, { status: 400 });
   return { ok: true as const, errors: undefined };
 }

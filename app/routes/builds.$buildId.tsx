@@ -16,6 +16,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     build: { id: b.id, name: b.name, status: b.status, client_name: b.client_name, archived: b.archived_at !== null },
     canEdit: can(v.role, "edit:build"),
     canViewRevisions: can(v.role, "view:revisions"),
+    canViewReviews: can(v.role, "view:reviews"),
   };
 }
 
@@ -31,20 +32,21 @@ const SECTIONS = [
   ["checks", "Checks"],
   ["render", "Render"],
   ["revisions", "Revisions"],
+  ["reviews", "Reviews"],
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
-  const { build, canViewRevisions } = loaderData;
+  const { build, canViewRevisions, canViewReviews } = loaderData;
   return (
     <div>
       <div className="flex flex-wrap items-baseline gap-3">
         <h1>{build.name}</h1>
-        <span className="rounded bg-soot-700 px-2 py-0.5 text-xs">{STATUS_LABELS[build.status]}</span>
+        <span className="rounded bg-soot-700 px-2 py-0.5 text-xs" data-testid="build-status">{STATUS_LABELS[build.status]}</span>
         {build.archived ? <span className="rounded bg-soot-800 px-2 py-0.5 text-xs text-iron-400">Archived</span> : null}
         <span className="text-iron-400">{build.client_name}</span>
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
-        {SECTIONS.filter(([to]) => to !== "revisions" || canViewRevisions).map(([to, label]) => (
+        {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews)).map(([to, label]) => (
           <NavLink key={to} to={to} end={to === "."} className={tab}>
             {label}
           </NavLink>

@@ -7,6 +7,8 @@ import * as m0400 from "./20261202_0400_template_delete";
 import * as m0500 from "./20261202_0500_config_saved_at";
 import * as m0600 from "./20261202_0600_template_version_uses";
 import * as m0700 from "./20261202_0700_revisions";
+import * as m0750 from "./20261202_0750_mail";
+import * as m0760 from "./20261202_0760_reviews";
 import * as m0800 from "./20261202_0800_fonts";
 import * as m1100 from "./20261202_1100_rate_limits";
 
@@ -17,6 +19,8 @@ export const migrations: Record<string, Migration> = {
   "20261202_0500_config_saved_at": m0500,
   "20261202_0600_template_version_uses": m0600,
   "20261202_0700_revisions": m0700,
+  "20261202_0750_mail": m0750,
+  "20261202_0760_reviews": m0760,
   "20261202_0800_fonts": m0800,
   "20261202_1100_rate_limits": m1100,
 };

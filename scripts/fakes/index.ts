@@ -4,19 +4,28 @@
 import path from "node:path";
 import { startFakeGitHub } from "./github";
 import { startFakeS3 } from "./s3";
+import { startMailSink } from "./mail-sink";
 
 const port = (name: string, fallback: number) => Number(process.env[name] ?? fallback);
+
+const sinkDatabase = process.env.MAIL_SINK_DATABASE_URL;
+if (!sinkDatabase) {
+  console.error("[fakes] MAIL_SINK_DATABASE_URL is not set: the local mail sink keeps messages in the app's database.");
+  process.exit(1);
+}
 
 const github = await startFakeGitHub(port("FAKE_GITHUB_PORT", 0));
 const s3 =
   process.env.HB_STORAGE === "s3" && !process.env.HB_S3_ENDPOINT
     ? await startFakeS3({ port: port("FAKE_S3_PORT", 0), directory: path.resolve(process.env.HB_DATA_DIR ?? ".data", "fake-s3") })
     : null;
-console.log(`FAKES_READY ${JSON.stringify({ FAKE_GITHUB_URL: github.url, ...(s3 ? { HB_STORAGE: "s3", ...s3.settings } : {}) })}`);
+const sink = await startMailSink({ port: port("FAKE_SMTP_PORT", 0), databaseUrl: sinkDatabase });
+console.log(`FAKES_READY ${JSON.stringify({ FAKE_GITHUB_URL: github.url, SMTP_URL: sink.url, ...(s3 ? { HB_STORAGE: "s3", ...s3.settings } : {}) })}`);
 
 const stop = async () => {
   github.close();
   await s3?.close();
+  await sink.close().catch(() => {});
   process.exit(0);
 };
 process.on("SIGTERM", stop);

@@ -7,9 +7,9 @@ import { test, expect, signInRequest, buildIdByName, BASE_URL } from "./fixtures
 
 type Who = "anonymous" | "owner" | "builder" | "reviewer" | "client";
 const LOGINS: Record<Exclude<Who, "anonymous">, string> = { owner: "demo-owner", builder: "demo-builder", reviewer: "demo-reviewer", client: "client-one" };
-type Outcome = "ok" | "bad" | "403" | "404" | "405" | "415" | "login" | "401" | "redirect";
+type Outcome = "ok" | "bad" | "403" | "404" | "405" | "409" | "415" | "login" | "401" | "redirect";
 type Case = { route: string; method: "GET" | "POST" | "PUT"; path: (ids: Ids) => string; form?: Record<string, string>; json?: unknown; expect: Record<Who, Outcome> };
-type Ids = { kestrel: string; harrier: string; template: string; kestrelSound: string; harrierSound: string };
+type Ids = { kestrel: string; harrier: string; template: string; kestrelSound: string; harrierSound: string; review: string };
 
 const all = (o: Outcome): Record<Who, Outcome> => ({ anonymous: o, owner: o, builder: o, reviewer: o, client: o });
 const staff = (ok: Outcome, others: Outcome, anon: Outcome = "login"): Record<Who, Outcome> => ({ anonymous: anon, owner: ok, builder: ok, reviewer: others, client: others });
@@ -93,6 +93,17 @@ const CASES: Case[] = [
   { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.harrier}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?names=9.9`, expect: { ...all("bad"), anonymous: "401" } },
+  { route: "/builds/:buildId/reviews", method: "GET", path: (i) => `/builds/${i.kestrel}/reviews`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  // No reviewer chosen: refused as bad input for those who may ask; nothing is requested.
+  { route: "/builds/:buildId/reviews", method: "POST", path: (i) => `/builds/${i.kestrel}/reviews`, form: { intent: "request" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId/reviews/:requestId", method: "GET", path: (i) => `/builds/${i.kestrel}/reviews/${i.review}`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/reviews/:requestId", method: "GET", path: (i) => `/builds/${i.harrier}/reviews/${i.review}`, expect: { ...all("404"), anonymous: "login" } },
+  { route: "/builds/:buildId/reviews/:requestId", method: "POST", path: (i) => `/builds/${i.kestrel}/reviews/${i.review}`, form: { intent: "comment", body: "", line: "1" }, expect: { ...staff("bad", "403"), reviewer: "bad" } },
+  // A verdict on a revision that is not in review (the matrix's request is for revision 9999): 409; builders and clients may give none.
+  { route: "/builds/:buildId/reviews/:requestId", method: "POST", path: (i) => `/builds/${i.kestrel}/reviews/${i.review}`, form: { intent: "verdict", verdict: "approved" }, expect: { anonymous: "login", owner: "409", builder: "403", reviewer: "409", client: "403" } },
+  // The development mailbox is open to anyone while it is served (HB_DEV_MAILBOX=1 in the e2e run); production answers 404.
+  { route: "/dev/mailbox", method: "GET", path: () => "/dev/mailbox", expect: all("ok") },
+  { route: "/dev/mailbox/:messageId", method: "GET", path: () => "/dev/mailbox/00000000-0000-4000-8000-000000000000", expect: all("404") },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 
@@ -118,7 +129,9 @@ for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who
     await sql.query("INSERT INTO template_versions (template_id, version, source) VALUES ($1, 1, 'one'), ($1, 2, 'two')", [template]);
     const sound = async (name: string) =>
       (await sql.query("SELECT f.sha256 FROM font_files f JOIN font_uploads u ON u.id = f.upload_id JOIN builds b ON b.id = u.build_id WHERE b.name = $1 ORDER BY f.path LIMIT 1", [name])).rows[0].sha256 as string;
-    const ids = { kestrel: await buildIdByName(sql, "Kestrel"), harrier: await buildIdByName(sql, "Harrier"), template, kestrelSound: await sound("Kestrel"), harrierSound: await sound("Harrier") };
+    const kestrel = await buildIdByName(sql, "Kestrel");
+    const review = (await sql.query("INSERT INTO review_requests (build_id, workshop_id, revision, template_label, rendered) VALUES ($1, $2, 9999, 'matrix', E'one\\ntwo') RETURNING id", [kestrel, ws])).rows[0].id;
+    const ids = { kestrel, review, harrier: await buildIdByName(sql, "Harrier"), template, kestrelSound: await sound("Kestrel"), harrierSound: await sound("Harrier") };
     const api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Origin: BASE_URL } });
     if (who !== "anonymous") await signInRequest(api, LOGINS[who]);
     const failures: string[] = [];
@@ -133,6 +146,8 @@ for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who
     }
     expect(failures).toEqual([]);
     expect((await sql.query("SELECT count(*)::int AS n FROM template_versions WHERE template_id = $1", [template])).rows[0].n).toBe(2);
+    expect((await sql.query("SELECT count(*)::int AS n FROM review_comments WHERE request_id = $1", [review])).rows[0].n).toBe(0);
+    await sql.query("DELETE FROM review_requests WHERE id = $1", [review]);
     await sql.query("DELETE FROM templates WHERE id = $1", [template]);
     await api.dispose();
   });

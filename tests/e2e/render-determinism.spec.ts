@@ -22,7 +22,7 @@ test("status and notes leave a rendered header's bytes alone; a config save move
       expect(savedLine(first)).toBeDefined();
 
       await page.goto(`/builds/${kestrel}`);
-      await page.getByLabel("Status").selectOption(before.status === "approved" ? "in-review" : "approved");
+      await page.getByLabel("Status").selectOption(before.status === "intake" ? "configuring" : "intake");
       await page.getByLabel("Hilt notes").fill(`${before.hilt_notes} Emitter shroud polished.`);
       await page.getByRole("button", { name: "Save details" }).click();
       await expect(page.getByRole("status").filter({ hasText: "Saved." })).toBeVisible();

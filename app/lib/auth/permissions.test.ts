@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { can, isRenderViewAction, PERMISSIONS, RENDER_VIEW_ACTIONS } from "./permissions";
+import { can, isRenderViewAction, mayGiveVerdict, PERMISSIONS, RENDER_VIEW_ACTIONS } from "./permissions";
 
 describe("role table", () => {
   it("gives the owner everything and the client only viewing and the API", () => {
@@ -20,5 +20,22 @@ describe("role table", () => {
     expect(isRenderViewAction("pin")).toBe(true);
     expect(isRenderViewAction("toString")).toBe(false);
     expect(isRenderViewAction(null)).toBe(false);
+  });
+});
+
+describe("reviews", () => {
+  it("reviewers comment and give verdicts but edit nothing; builders ask and resolve but give no verdict; clients see no reviews", () => {
+    expect(can("reviewer", "comment:review") && can("reviewer", "give:verdict")).toBe(true);
+    expect(can("reviewer", "edit:build")).toBe(false);
+    expect(can("builder", "request:review") && can("builder", "resolve:comment")).toBe(true);
+    expect(can("builder", "give:verdict")).toBe(false);
+    expect(PERMISSIONS.filter((p) => can("client", p) && p.includes("review"))).toEqual([]);
+  });
+  it("nobody gives a verdict on a revision they saved or a review they asked for", () => {
+    expect(mayGiveVerdict("reviewer", "r", { authorId: "b", requestedBy: "b" })).toBe(true);
+    expect(mayGiveVerdict("owner", "o", { authorId: "o", requestedBy: "b" })).toBe(false);
+    expect(mayGiveVerdict("owner", "o", { authorId: "b", requestedBy: "o" })).toBe(false);
+    expect(mayGiveVerdict("builder", "x", { authorId: "b", requestedBy: "b" })).toBe(false);
+    expect(mayGiveVerdict("client", "x", { authorId: null, requestedBy: null })).toBe(false);
   });
 });

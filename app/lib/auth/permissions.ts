@@ -14,13 +14,34 @@ export const PERMISSIONS = [
   "edit:template",
   "view:revisions", // a build's revisions, their configs and comparisons (not clients)
   "upload:font", // send a font's files to a build (clients send theirs to the workshop, which uploads them)
+  "view:reviews", // review requests, threads and verdicts (never clients)
+  "request:review", // ask reviewers to read a revision
+  "comment:review", // comment and reply in review threads
+  "resolve:comment", // mark a thread resolved (the builder, once it is dealt with)
+  "give:verdict", // approve a revision or ask for changes (not on one's own revision, see mayGiveVerdict)
+  "be:reviewer", // may be asked to review
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
 const table: Record<Role, ReadonlySet<Permission>> = {
   owner: new Set(PERMISSIONS),
-  builder: new Set(["view:builds", "create:build", "edit:build", "archive:build", "view:members", "use:api", "view:templates", "edit:template", "view:revisions", "upload:font"]),
-  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions"]),
+  builder: new Set([
+    "view:builds",
+    "create:build",
+    "edit:build",
+    "archive:build",
+    "view:members",
+    "use:api",
+    "view:templates",
+    "edit:template",
+    "view:revisions",
+    "upload:font",
+    "view:reviews",
+    "request:review",
+    "comment:review",
+    "resolve:comment",
+  ]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer"]),
   client: new Set(["view:builds", "use:api"]),
 };
 
@@ -39,4 +60,12 @@ export const isRenderViewAction = (s: unknown): s is RenderViewAction => typeof 
 /** Clients see only the builds they are the client of; everyone else sees the workshop's. */
 export function seesOnlyOwnBuilds(role: Role): boolean {
   return role === "client";
+}
+
+/**
+ * A verdict needs the permission and someone else's work: nobody approves (or turns back) a
+ * revision they saved or a review they asked for themselves, whatever their role.
+ */
+export function mayGiveVerdict(role: Role, viewerId: string, revision: { authorId: string | null; requestedBy: string | null }): boolean {
+  return can(role, "give:verdict") && revision.authorId !== viewerId && revision.requestedBy !== viewerId;
 }

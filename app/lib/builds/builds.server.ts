@@ -11,6 +11,8 @@ import { starterConfig } from "../config/starter";
 import { db } from "../db/db.server";
 import { createBuild, listBuilds, listClients, setArchived, updateBuildMeta, type BuildMeta, type BuildQuery } from "../repo/builds.server";
 import { rigErrorsForForm } from "../forms/rig-form";
+import type { BuildStatus } from "../db/types";
+import { manualStatusError } from "./status";
 
 /** The builds this viewer may see (a client only their own), one page of them. */
 export function buildsFor(v: Viewer, query: BuildQuery) {
@@ -44,8 +46,14 @@ export async function createBuildFor(v: Viewer, meta: BuildMeta): Promise<Detail
   return { ok: true, id };
 }
 
-/** A build's name, client, notes and status (not its config). */
-export async function updateDetails(v: Viewer, buildId: string, meta: BuildMeta): Promise<DetailsOutcome> {
+/**
+ * A build's name, client, notes and status (not its config). "In review" and "approved" follow
+ * the reviews, so setting either by hand is refused with an error on `status` (review/rules).
+ */
+export async function updateDetails(v: Viewer, current: { id: string; status: BuildStatus }, meta: BuildMeta): Promise<DetailsOutcome> {
+  const buildId = current.id;
+  const statusError = manualStatusError(current.status, meta.status);
+  if (statusError) return { ok: false, errors: { status: statusError } };
   if (meta.clientUserId && !(await clientsOf(v)).some((c) => c.id === meta.clientUserId)) return notAClient;
   await updateBuildMeta(db(), v.workshop.id, buildId, meta);
   return { ok: true, id: buildId };

@@ -162,6 +162,79 @@ export interface FontLayoutsTable {
   created_at: Timestamp;
 }
 
+/** One e-mail on its way: written with what caused it, delivered by the `mail.send` queue. */
+export interface MailOutboxTable {
+  id: Generated<string>;
+  kind: string;
+  to_address: string;
+  subject: string;
+  text_body: string;
+  html_body: string;
+  created_at: Timestamp;
+  attempts: Generated<number>;
+  last_attempt_at: Date | null;
+  last_error: string | null;
+  sent_at: Date | null;
+  smtp_response: string | null;
+}
+
+/** What the local SMTP sink received (development and tests only). */
+export interface MailSinkMessagesTable {
+  id: Generated<string>;
+  received_at: Timestamp;
+  message_id: string | null;
+  envelope_from: string;
+  envelope_to: string[];
+  header_from: Generated<string>;
+  header_to: Generated<string>;
+  subject: Generated<string>;
+  text_body: string | null;
+  html_body: string | null;
+  raw: string;
+}
+
+export const REVIEW_STATES = ["open", "approved", "changes-requested"] as const;
+export type ReviewState = (typeof REVIEW_STATES)[number];
+export type Verdict = "approved" | "changes-requested";
+
+/** A builder's request that reviewers read one revision; keeps the text they read. */
+export interface ReviewRequestsTable {
+  id: Generated<string>;
+  build_id: string;
+  workshop_id: string;
+  revision: number;
+  requested_by: string | null;
+  note: Generated<string>;
+  template_label: string;
+  rendered: string;
+  state: Generated<ReviewState>;
+  decided_at: Date | null;
+  created_at: Timestamp;
+}
+
+export interface ReviewReviewersTable {
+  request_id: string;
+  reviewer_id: string;
+  verdict: Verdict | null;
+  verdict_note: string | null;
+  verdict_at: Date | null;
+}
+
+/** A thread's first comment has a line (and that line's text) or a model path; replies have neither. */
+export interface ReviewCommentsTable {
+  id: Generated<string>;
+  request_id: string;
+  thread_id: string | null;
+  author_id: string | null;
+  body: string;
+  line: number | null;
+  line_text: string | null;
+  model_path: string | null;
+  resolved_at: Date | null;
+  resolved_by: string | null;
+  created_at: Timestamp;
+}
+
 export interface Database {
   workshops: WorkshopsTable;
   users: UsersTable;
@@ -177,6 +250,11 @@ export interface Database {
   font_uploads: FontUploadsTable;
   font_files: FontFilesTable;
   font_layouts: FontLayoutsTable;
+  mail_outbox: MailOutboxTable;
+  mail_sink_messages: MailSinkMessagesTable;
+  review_requests: ReviewRequestsTable;
+  review_reviewers: ReviewReviewersTable;
+  review_comments: ReviewCommentsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

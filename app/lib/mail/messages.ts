@@ -1,0 +1,89 @@
+// The e-mails Hiltbench sends, as plain text and HTML with a link back into the app. Pure: the
+// caller passes the app's address (APP_URL) and the names; nothing here reads the clock or the
+// database. A new kind of message (release, later) is one more call to `composeMail`.
+
+export type MailMessage = { kind: string; to: string; subject: string; text: string; html: string };
+
+export type MailContent = {
+  kind: string;
+  to: string;
+  subject: string;
+  /** Short paragraphs, plain text; each becomes a <p> in the HTML. */
+  paragraphs: string[];
+  /** A quoted passage (a comment, a note), kept as written. */
+  quote?: string;
+  /** The one link back into the app, absolute. */
+  action: { label: string; url: string };
+};
+
+const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+
+/** An absolute link into the app from its base address and a path. */
+export function linkTo(appUrl: string, path: string): string {
+  return new URL(path, appUrl.endsWith("/") ? appUrl : `${appUrl}/`).toString();
+}
+
+/** Trim a quoted passage for an e-mail: first lines only, never the whole of a long comment. */
+function excerpt(s: string, max = 600): string {
+  const t = s.trim();
+  return t.length <= max ? t : `${t.slice(0, max).trimEnd()} …`;
+}
+
+const FOOTER = "You get this because you are a member of a Hiltbench workshop.";
+
+export function composeMail(c: MailContent): MailMessage {
+  const quote = c.quote !== undefined ? excerpt(c.quote) : undefined;
+  const text = [
+    ...c.paragraphs,
+    ...(quote !== undefined ? [quote.split("\n").map((l) => `> ${l}`).join("\n")] : []),
+    `${c.action.label}: ${c.action.url}`,
+    `-- \n${FOOTER}`,
+  ].join("\n\n");
+  const html = [
+    `<!doctype html><html><body style="font-family:system-ui,sans-serif;line-height:1.5;color:#1d1b19">`,
+    ...c.paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`),
+    ...(quote !== undefined ? [`<blockquote style="border-left:3px solid #c8642a;margin:0;padding-left:12px;white-space:pre-wrap">${escapeHtml(quote)}</blockquote>`] : []),
+    `<p><a href="${escapeHtml(c.action.url)}">${escapeHtml(c.action.label)}</a></p>`,
+    `<p style="color:#6b645c;font-size:12px">${escapeHtml(FOOTER)}</p>`,
+    `</body></html>`,
+  ].join("\n");
+  return { kind: c.kind, to: c.to, subject: c.subject, text, html };
+}
+
+type Revision = { buildName: string; revision: number };
+
+export function reviewRequestedMail(a: Revision & { to: string; requesterName: string; note?: string | null; url: string }): MailMessage {
+  return composeMail({
+    kind: "review-requested",
+    to: a.to,
+    subject: `Review requested: ${a.buildName}, revision ${a.revision}`,
+    paragraphs: [`${a.requesterName} asks you to review revision ${a.revision} of the build "${a.buildName}".`],
+    quote: a.note || undefined,
+    action: { label: "Open the review", url: a.url },
+  });
+}
+
+export function commentMail(a: Revision & { to: string; authorName: string; where: string; body: string; url: string }): MailMessage {
+  return composeMail({
+    kind: "review-comment",
+    to: a.to,
+    subject: `New comment on ${a.buildName}, revision ${a.revision}`,
+    paragraphs: [`${a.authorName} commented on ${a.where} of revision ${a.revision} of "${a.buildName}":`],
+    quote: a.body,
+    action: { label: "Read the comment", url: a.url },
+  });
+}
+
+export type VerdictKind = "approved" | "changes-requested";
+
+export function verdictMail(a: Revision & { to: string; reviewerName: string; verdict: VerdictKind; note?: string | null; url: string }): MailMessage {
+  const said = a.verdict === "approved" ? "approved" : "asked for changes to";
+  return composeMail({
+    kind: "review-verdict",
+    to: a.to,
+    subject: `${a.verdict === "approved" ? "Approved" : "Changes requested"}: ${a.buildName}, revision ${a.revision}`,
+    paragraphs: [`${a.reviewerName} ${said} revision ${a.revision} of "${a.buildName}".`],
+    quote: a.note || undefined,
+    action: { label: "Open the review", url: a.url },
+  });
+}
