@@ -5,6 +5,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
 import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { INT4_MAX, isInt4 } from "~/lib/web/edges";
 import type { Route } from "./+types/api.builds.$buildId.config";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -23,8 +24,7 @@ export function action({ request, params }: Route.ActionArgs) {
     const body = await readJsonBody(request);
     const config = requireField(body, "config");
     const version = requireField(body, "version");
-    if (typeof version !== "number" || !Number.isInteger(version) || version < 0)
-      fail(400, '"version" must be the whole number config version the config was read at (GET answers it).');
+    if (!isInt4(version)) fail(400, `"version" must be the whole number config version the config was read at (GET answers it), from 0 to ${INT4_MAX}.`);
     const r = await storeCheckedConfig(v, b.id, config, version);
     if (r.kind === "invalid") return json({ error: r.message, diagnostics: r.diagnostics }, { status: 422 });
     if (r.kind === "stale") return json({ error: r.message, currentVersion: r.currentVersion }, { status: 409 });

@@ -5,6 +5,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { downloadName } from "~/lib/rendering/render";
 import { chooseTemplateForBuild, renderBuildOrSource } from "~/lib/rendering/service.server";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
+import { INT4_MAX, int4From } from "~/lib/web/edges";
 import type { Route } from "./+types/api.builds.$buildId.render";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -13,8 +14,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const b = await loadBuildFor(v, params.buildId);
     const url = new URL(request.url);
     const versionText = url.searchParams.get("version");
-    const version = versionText === null ? undefined : Number(versionText);
-    if (version !== undefined && (!Number.isInteger(version) || version < 1)) fail(400, "'version' must be a whole number from 1.");
+    const version = versionText === null ? undefined : (int4From(versionText, 1) ?? fail(400, `'version' must be a whole number from 1 to ${INT4_MAX}.`));
     const t = await chooseTemplateForBuild(v, b, url.searchParams.get("template"), version);
     const r = await renderBuildOrSource(v, { build: b }, t);
     if (r.kind === "failed") return json({ errors: r.errors }, { status: 422 });

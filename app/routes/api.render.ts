@@ -6,6 +6,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { chooseTemplate, renderBuildOrSource } from "~/lib/rendering/service.server";
 import { readJsonBody } from "~/lib/web/body.server";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
+import { INT4_MAX } from "~/lib/web/edges";
 import type { Route } from "./+types/api.render";
 
 /** Templates are tens of kilobytes and configs a few hundred; a render request stays under 1 MB. */
@@ -16,7 +17,7 @@ const Body = z.union([
   z.object({ buildId: z.string(), config: z.undefined().optional(), template: z.unknown() }),
 ]);
 const TemplateRef = z.union([
-  z.object({ id: z.string().min(1), version: z.number().int().min(1).optional() }).strict(),
+  z.object({ id: z.string().min(1), version: z.number().int().min(1).max(INT4_MAX).optional() }).strict(),
   z.object({ source: z.string() }).strict(),
   z.object({ builtin: z.string() }).strict(),
 ]);

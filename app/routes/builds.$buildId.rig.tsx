@@ -8,6 +8,7 @@ import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/s
 import { can } from "~/lib/auth/permissions";
 import { saveRig } from "~/lib/builds/builds.server";
 import { rigFromForm } from "~/lib/forms/rig-form";
+import { int4From } from "~/lib/web/edges";
 import type { Route } from "./+types/builds.$buildId.rig";
 
 export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];
@@ -24,7 +25,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = await request.formData();
   const parsed = rigSchema.safeParse(rigFromForm(form));
   if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error), message: "Some fields need fixing; nothing was saved." }, { status: 400 });
-  const expected = Number(form.get("version"));
+  const expected = int4From(form.get("version"));
+  if (expected === null) return data({ ok: false as const, errors: {}, message: "The form must carry the config version the page was read at; reload the page. Nothing was saved." }, { status: 400 });
   const saved = await saveRig(v, b, parsed.data, expected);
   if (saved.kind === "invalid") return data({ ok: false as const, errors: saved.fieldErrors, message: saved.message }, { status: 422 });
   if (saved.kind === "stale")

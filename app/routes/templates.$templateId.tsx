@@ -19,6 +19,7 @@ import type { TemplateError } from "~/lib/template";
 import { readFormLimited } from "~/lib/web/body.server";
 import { errorTitle } from "~/lib/web/errors";
 import { fail } from "~/lib/web/http.server";
+import { int4From } from "~/lib/web/edges";
 import type { Route } from "./+types/templates.$templateId";
 
 export const meta: Route.MetaFunction = ({ data, error }) => [{ title: error ? errorTitle(error) : `${data?.template.name ?? "Template"} · Templates · Hiltbench` }];
@@ -56,9 +57,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
   if (intent !== "save") fail(400, "Unknown action: use intent 'save' or 'delete'.");
   const source = form.get("source");
-  const latest = Number(form.get("latest"));
+  const latest = int4From(form.get("latest"), 1);
   if (typeof source !== "string") return data<SaveAnswer>({ ok: false, message: "The form has no template source." }, { status: 400 });
-  if (!Number.isInteger(latest) || latest < 1) return data<SaveAnswer>({ ok: false, message: "The form must say which version the editor was opened at." }, { status: 400 });
+  if (latest === null) return data<SaveAnswer>({ ok: false, message: "The form must say which version the editor was opened at." }, { status: 400 });
   const r = await saveTemplateSource(v, t, source, latest);
   if (!r.ok) return data<SaveAnswer>({ ok: false, message: r.message, ...(r.errors ? { errors: r.errors } : {}) }, { status: r.status });
   return data<SaveAnswer>(r);

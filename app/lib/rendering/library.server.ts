@@ -29,6 +29,7 @@ import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, compileTemplate, DEF
 import { fail } from "../web/http.server";
 import { partialsFrom } from "./render";
 import { chooseTemplateForBuild, pinnedTemplate, renderBuildOrSource, type RenderableBuild, type ResolvedTemplate } from "./service.server";
+import { INT4_MAX, int4From } from "../web/edges";
 import { diffVersions, newerPartials, parseCompare, type NewerPartial, type VersionDiff } from "./version-diff";
 
 export type OpenedTemplate = { id: string; name: string; kind: "builtin" | "workshop"; version: number; latest: number; source: string };
@@ -39,8 +40,7 @@ export async function openTemplate(v: Viewer, ref: string, asked: string | null)
   if (isBuiltinName(ref)) return { template: { id: ref, name: ref, kind: "builtin", version: BUILTIN_VERSION, latest: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] }, versions: [] };
   const t = await getTemplate(db(), v.workshop.id, ref);
   if (!t) fail(404, "No template with this id in your workshop.");
-  const version = asked === null ? undefined : Number(asked);
-  if (version !== undefined && (!Number.isInteger(version) || version < 1)) fail(400, "'version' must be a whole number from 1.");
+  const version = asked === null ? undefined : (int4From(asked, 1) ?? fail(400, `'version' must be a whole number from 1 to ${INT4_MAX}.`));
   const row = await getTemplateVersion(db(), v.workshop.id, t.id, version);
   if (!row) fail(404, `This template has no version ${version}.`);
   const all = await listVersions(db(), v.workshop.id, t.id);
@@ -220,14 +220,14 @@ export function isPinnable(t: { kind: string; name: string }): boolean {
  * The pin policy: a build renders with a workshop template at a version it names, or with the
  * default built-in (pinning it clears the pin); the other built-ins are for reading only.
  */
-export async function pinForBuild(v: Viewer, buildId: string, ref: unknown, version: number): Promise<void> {
+export async function pinForBuild(v: Viewer, buildId: string, ref: unknown, version: number | null): Promise<void> {
   if (typeof ref !== "string" || ref === "") fail(400, "Choose the template to pin.");
   if (isBuiltinName(ref)) {
     if (ref !== DEFAULT_BUILTIN) fail(400, "Only the generic header (or a workshop template) can be a build's template; the other built-ins are for reading.");
     await pinTemplate(db(), v.workshop.id, buildId, null);
     return;
   }
-  if (!Number.isInteger(version) || version < 1) fail(400, "Say which version of the template to pin.");
+  if (version === null) fail(400, "Say which version of the template to pin (a whole number from 1).");
   const t = await getTemplateVersion(db(), v.workshop.id, ref, version);
   if (!t) fail(404, "No such template version in your workshop.");
   try {

@@ -2,6 +2,7 @@
 // the cap, never buffered whole; and JSON with a depth cap, so a pathological document becomes a
 // 400 with a message rather than a slow walk further down.
 import { data } from "react-router";
+import { findBadText } from "./edges";
 import { fail } from "./http.server";
 
 /** Configs are a few tens of kilobytes; 2 MB leaves room for big preset lists. */
@@ -84,6 +85,10 @@ export function parseJsonText(text: string, what = "The request body"): unknown 
     fail(400, `${what} is not valid JSON (${e instanceof Error ? e.message : String(e)}).`);
   }
   if (jsonDepth(value, MAX_JSON_DEPTH) > MAX_JSON_DEPTH) fail(400, `${what} nests deeper than ${MAX_JSON_DEPTH} levels; a config never does.`);
+  // Text PostgreSQL cannot store is refused here, with its path, for every JSON endpoint alike
+  // (so /api/validate and the PUT agree); the config schema refuses it too (decision 011).
+  const bad = findBadText(value);
+  if (bad) fail(400, `${what} has text at ${bad.path} that ${bad.reason}; nothing was changed.`);
   return value;
 }
 
