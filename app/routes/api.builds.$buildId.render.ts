@@ -17,7 +17,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const version = versionText === null ? undefined : (int4From(versionText, 1) ?? fail(400, `'version' must be a whole number from 1 to ${INT4_MAX}.`));
     const t = await chooseTemplateForBuild(v, b, url.searchParams.get("template"), version);
     const r = await renderBuildOrSource(v, { build: b }, t);
-    if (r.kind === "failed") return json({ errors: r.errors }, { status: 422 });
+    if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
     const headers = new Headers({ "X-Template": `${t.name}@${t.version}` });
     if (url.searchParams.get("download")) headers.set("Content-Disposition", `attachment; filename="${downloadName(b.name, t.name, r.target)}"`);
     return text(r.output, { headers });

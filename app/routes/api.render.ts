@@ -48,8 +48,8 @@ export function action({ request }: Route.ActionArgs) {
     const build = body.data.buildId !== undefined ? await loadBuildFor(v, body.data.buildId) : null;
     const t = await chooseTemplate(v, ref.data, build ?? undefined);
     const r = await renderBuildOrSource(v, build ? { build } : { config: body.data.config }, t);
-    if (r.kind === "bad-config") return json({ error: r.message, errors: r.errors }, { status: 422 });
-    if (r.kind === "failed") return json({ errors: r.errors }, { status: 422 });
+    if (r.kind === "bad-config") return json({ error: r.message, errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
+    if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
     return text(r.output, { headers: { "X-Template": `${t.name}@${t.version}` } });
   });
 }

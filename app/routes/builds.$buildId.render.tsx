@@ -15,6 +15,7 @@ import { openRenderView, pinForBuild } from "~/lib/rendering/library.server";
 import { readFormLimited } from "~/lib/web/body.server";
 import { fail } from "~/lib/web/http.server";
 import { int4From } from "~/lib/web/edges";
+import { cappedNote } from "~/lib/template/error-list";
 import type { Route } from "./+types/builds.$buildId.render";
 
 export const meta: Route.MetaFunction = ({ matches }) => {
@@ -175,6 +176,7 @@ export default function RenderPage({ loaderData }: Route.ComponentProps) {
                 </li>
               ))}
             </ul>
+            {cappedNote(result) ? <p className="mt-2 text-sm text-iron-300" data-testid="errors-capped">{cappedNote(result)}</p> : null}
           </div>
         )}
       </section>
