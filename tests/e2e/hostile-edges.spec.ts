@@ -185,7 +185,12 @@ async function get(ctx: APIRequestContext, path: string) {
   }
 }
 
-type Probe = { what: string; status: number; json: boolean; api: boolean };
+/**
+ * A path that is not valid percent-encoded UTF-8 is refused by Express (inside
+ * react-router-serve) with a plain-text 400 before the app runs: a 4xx, but not our JSON
+ * (decision 011, "Not done").
+ */
+type Probe = { what: string; status: number; json: boolean; api: boolean; badPath?: boolean };
 
 test.describe("random input at every edge never answers 500", () => {
   test.setTimeout(240_000);
@@ -201,7 +206,13 @@ test.describe("random input at every edge never answers 500", () => {
     let agreements = 0;
     const record = async (what: string, api: boolean, r: Awaited<ReturnType<APIRequestContext["get"]>>) => {
       const type = r.headers()["content-type"] ?? "";
-      probes.push({ what, status: r.status(), json: type.startsWith("application/json"), api });
+      let badPath = false;
+      try {
+        decodeURIComponent(new URL(r.url()).pathname);
+      } catch {
+        badPath = true;
+      }
+      probes.push({ what, status: r.status(), json: type.startsWith("application/json"), api, badPath });
       return r;
     };
     const form = (path: string, fields: Record<string, string>) =>
@@ -267,7 +278,7 @@ test.describe("random input at every edge never answers 500", () => {
         { numRuns: 40, seed: Number(process.env.FC_SEED ?? Date.now() % 1_000_000), endOnFailure: true },
       );
       const fivehundreds = probes.filter((p) => p.status >= 500);
-      const nonJson = probes.filter((p) => p.api && p.status >= 400 && !p.json);
+      const nonJson = probes.filter((p) => p.api && p.status >= 400 && !p.json && !(p.badPath && p.status === 400));
       console.log(`hostile edges: ${probes.length} requests, ${agreements} configs validate accepted and the PUT stored; statuses ${JSON.stringify(probes.reduce<Record<number, number>>((m, p) => ((m[p.status] = (m[p.status] ?? 0) + 1), m), {}))}`);
       expect(fivehundreds.map((p) => `${p.what}: ${p.status}`)).toEqual([]);
       expect(nonJson.map((p) => `${p.what}: ${p.status}`)).toEqual([]);
