@@ -2,8 +2,6 @@
 // the server bundle (see vite.config.ts). It compiles and renders one template per message with
 // the same `compileAndRender` the server used to call inline; the pool in
 // pool.server.ts owns the clock and terminates a worker that does not answer in time.
-import { readlinkSync } from "node:fs";
-import { setPriority } from "node:os";
 import { parentPort } from "node:worker_threads";
 import type { Config } from "../config/schema";
 import type { Limits, RenderMeta } from "../template";
@@ -39,22 +37,8 @@ export type WorkerMessage =
   /** compileAndRender threw (a bug, not a template error): the pool answers with an exception. */
   | { kind: "failed"; id: number; message: string };
 
-/**
- * Renders and checks are background work: on Linux a thread has its own nice value, so the
- * worker lowers its own (by its thread id) and the event loop keeps the CPU when both want it.
- */
-function lowerOwnPriority() {
-  try {
-    const tid = Number(readlinkSync("/proc/thread-self").split("/").pop());
-    if (Number.isInteger(tid) && tid > 0) setPriority(tid, 10);
-  } catch {
-    // Not Linux, or not allowed: the worker runs at normal priority.
-  }
-}
-
 const port = parentPort;
 if (port) {
-  lowerOwnPriority();
   port.on("message", (m: WorkerRequest) => {
     let reply: WorkerMessage;
     try {
