@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 import { demoConfig } from "../config/demo";
 import { configSchema, type Config } from "../config/schema";
 import { isStorableText } from "../web/edges";
-import { BUILTIN_TEMPLATES } from "./builtins";
+import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, builtinSource } from "./builtins";
 import { compileTemplate, render, type RenderMeta } from "./compile";
 import { ccCheck, hasCC, META } from "./test-helpers";
 
@@ -49,6 +49,14 @@ describe("C output is safe by default", () => {
   it("the built-in header prints every model text through a C filter (it compiles under the rule)", () => {
     const c = compileTemplate(BUILTIN_TEMPLATES["generic-header"]);
     expect(c.ok).toBe(true);
+  });
+
+  it("every released built-in, at every version still served (v1 and v2), compiles under the rule", () => {
+    for (const name of BUILTIN_NAMES)
+      for (let version = 1; version <= BUILTIN_VERSION; version++) {
+        const c = compileTemplate(builtinSource(name, version)!);
+        expect(c.ok ? [] : c.errors.filter((e) => e.severity === "error").map((e) => `${name}@${version} ${e.line}:${e.column} ${e.message}`)).toEqual([]);
+      }
   });
 
   it("a template that prints a name raw into a comment is refused at the tag", () => {
