@@ -5,7 +5,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
 import { apiAnswer, fail, json } from "~/lib/web/http.server";
-import { INT4_MAX, isInt4 } from "~/lib/web/edges";
+import { INT4_MAX, isInt4 } from "~/lib/input/edges";
 import type { Route } from "./+types/api.builds.$buildId.config";
 
 export function loader({ request, params }: Route.LoaderArgs) {

@@ -5,7 +5,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { downloadName } from "~/lib/rendering/render";
 import { chooseTemplateForBuild, renderBuildOrSource } from "~/lib/rendering/service.server";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
-import { INT4_MAX, int4From } from "~/lib/web/edges";
+import { INT4_MAX, int4From } from "~/lib/input/edges";
 import type { Route } from "./+types/api.builds.$buildId.render";
 
 export function loader({ request, params }: Route.LoaderArgs) {

@@ -6,7 +6,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { chooseTemplate, renderBuildOrSource } from "~/lib/rendering/service.server";
 import { readJsonBody } from "~/lib/web/body.server";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
-import { INT4_MAX } from "~/lib/web/edges";
+import { INT4_MAX } from "~/lib/input/edges";
 import type { Route } from "./+types/api.render";
 
 /** Templates are tens of kilobytes and configs a few hundred; a render request stays under 1 MB. */

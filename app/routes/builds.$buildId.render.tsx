@@ -14,7 +14,7 @@ import { applyHeader } from "~/lib/readback/apply.server";
 import { openRenderView, pinForBuild } from "~/lib/rendering/library.server";
 import { readFormLimited } from "~/lib/web/body.server";
 import { fail } from "~/lib/web/http.server";
-import { int4From } from "~/lib/web/edges";
+import { int4From } from "~/lib/input/edges";
 import { cappedNote } from "~/lib/template/error-list";
 import type { Route } from "./+types/builds.$buildId.render";
 

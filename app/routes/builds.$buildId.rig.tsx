@@ -8,7 +8,7 @@ import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/s
 import { can } from "~/lib/auth/permissions";
 import { saveRig } from "~/lib/builds/builds.server";
 import { rigFromForm } from "~/lib/forms/rig-form";
-import { int4From } from "~/lib/web/edges";
+import { int4From } from "~/lib/input/edges";
 import type { Route } from "./+types/builds.$buildId.rig";
 
 export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];

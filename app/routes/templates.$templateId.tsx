@@ -19,7 +19,7 @@ import type { TemplateError } from "~/lib/template";
 import { readFormLimited } from "~/lib/web/body.server";
 import { errorTitle } from "~/lib/web/errors";
 import { fail } from "~/lib/web/http.server";
-import { int4From } from "~/lib/web/edges";
+import { int4From } from "~/lib/input/edges";
 import { capErrors, cappedNote, type ErrorKind } from "~/lib/template/error-list";
 import type { Route } from "./+types/templates.$templateId";
 

@@ -2,7 +2,7 @@
 // inferred from them. The JSON form ("hiltbench.config/1") is the public exchange format, so
 // field names here are part of a contract: add fields, never rename them.
 import { z } from "zod";
-import { badTextReason } from "../web/edges";
+import { badTextReason } from "../input/edges";
 
 export const CONFIG_FORMAT = "hiltbench.config/1" as const;
 

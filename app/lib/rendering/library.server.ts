@@ -30,7 +30,7 @@ import { fail } from "../web/http.server";
 import { checkOffThread } from "./pool.server";
 import { type ErrorKind } from "../template/error-list";
 import { chooseTemplateForBuild, pinnedTemplate, renderBuildOrSource, type RenderableBuild, type ResolvedTemplate } from "./service.server";
-import { INT4_MAX, int4From } from "../web/edges";
+import { INT4_MAX, int4From } from "../input/edges";
 import { diffVersions, newerPartials, parseCompare, type NewerPartial, type VersionDiff } from "./version-diff";
 
 export type OpenedTemplate = { id: string; name: string; kind: "builtin" | "workshop"; version: number; latest: number; source: string };

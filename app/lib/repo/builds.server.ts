@@ -1,6 +1,6 @@
 // Builds: the workshop's commissions. Every read takes the viewer's workshop (and, for a
 // client, their own user id), so a build of another workshop is simply not found.
-import { isInt4 } from "../web/edges";
+import { isInt4 } from "../input/edges";
 import { sql, type Kysely } from "kysely";
 import type { Config } from "../config/schema";
 import { BUILD_STATUSES, type BuildStatus, type Database } from "../db/types";

@@ -4,7 +4,7 @@ import { sql, type Kysely } from "kysely";
 import type { Database, TemplateUses } from "../db/types";
 import { partialsUsed } from "../template/partials-used";
 import { isUuid } from "./builds.server";
-import { isInt4 } from "../web/edges";
+import { isInt4 } from "../input/edges";
 
 type Db = Kysely<Database>;
 

@@ -5,7 +5,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { demoConfig } from "../config/demo";
 import { configSchema, type Config } from "../config/schema";
-import { isStorableText } from "../web/edges";
+import { isStorableText } from "../input/edges";
 import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, builtinSource } from "./builtins";
 import { compileTemplate, render, type RenderMeta } from "./compile";
 import { ccCheck, hasCC, META } from "./test-helpers";

@@ -2,7 +2,7 @@
 // the cap, never buffered whole; and JSON with a depth cap, so a pathological document becomes a
 // 400 with a message rather than a slow walk further down.
 import { data } from "react-router";
-import { findBadText } from "./edges";
+import { findBadText } from "../input/edges";
 import { fail } from "./http.server";
 import { parseUrlEncoded } from "./read-form.server";
 

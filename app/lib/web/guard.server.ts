@@ -1,14 +1,14 @@
 // The request guard: the one middleware (root.tsx) every request passes before any loader or
 // action runs (decision 011). It refuses, with a 4xx and a message naming what is wrong:
-// - a state-changing request from another site (auth/origin.ts), logout and sign-in included;
-// - an address whose path or query holds text PostgreSQL cannot store (web/edges.ts), or that
+// - a state-changing request from another site (web/origin.ts), logout and sign-in included;
+// - an address whose path or query holds text PostgreSQL cannot store (input/edges.ts), or that
 //   is not valid percent-encoded UTF-8, so no route parameter ever reaches a query with it;
 // - a form (URL-encoded or multipart, up to FORM_CHECK_BYTES) with such text in a field.
 // JSON bodies are checked where they are read (web/body.server.ts), with the JSON path.
 import { data, type MiddlewareFunction } from "react-router";
-import { crossSiteReason } from "../auth/origin";
+import { crossSiteReason } from "./origin";
 import { env } from "../env.server";
-import { badTextReason, findBadFormField } from "./edges";
+import { badTextReason, findBadFormField } from "../input/edges";
 import { json } from "./http.server";
 import { urlEncodedFieldWithNul } from "./read-form.server";
 
