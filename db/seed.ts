@@ -2,6 +2,7 @@
 // sign in by e-mail, and two builds. Safe to run any number of times.
 import { sql, type Kysely } from "kysely";
 import { demoConfig, demoConfigSmall } from "../app/lib/config/demo";
+import { validate } from "../app/lib/checks/validate";
 import type { Database, Role } from "../app/lib/db/types";
 
 export const DEMO_PEOPLE: { login: string | null; email: string | null; name: string; role: Role }[] = [
@@ -50,7 +51,8 @@ export async function seed(db: Kysely<Database>) {
   for (const b of builds) {
     const exists = await db.selectFrom("builds").select("id").where("workshop_id", "=", ws.id).where("name", "=", b.name).executeTakeFirst();
     if (exists) continue;
-    await db
+    const savedAt = new Date();
+    const row = await db
       .insertInto("builds")
       .values({
         workshop_id: ws.id,
@@ -60,7 +62,26 @@ export async function seed(db: Kysely<Database>) {
         hilt_notes: b.notes,
         status: b.status,
         config: JSON.stringify(b.config),
-        config_saved_at: new Date(),
+        config_saved_at: savedAt,
+      })
+      .returning(["id", "config_version"])
+      .executeTakeFirstOrThrow();
+    // Its first revision, as every new build gets one (migration 0700).
+    const found = validate(b.config);
+    await db
+      .insertInto("config_revisions")
+      .values({
+        build_id: row.id,
+        workshop_id: ws.id,
+        number: row.config_version,
+        config: JSON.stringify(b.config),
+        author_id: ids.get("demo-builder") ?? null,
+        created_at: savedAt,
+        message: "First config",
+        template_id: null,
+        template_version: null,
+        error_count: found.filter((d) => d.severity === "error").length,
+        warning_count: found.filter((d) => d.severity === "warning").length,
       })
       .execute();
   }

@@ -2,8 +2,10 @@
 // migrate it to the latest schema, and optionally seed the demo workshop.
 import pg from "pg";
 import { connect } from "../app/lib/db/connect";
+import { storage } from "../app/lib/storage/settings.server";
 import { migrateToLatest } from "./migrate";
 import { seed } from "./seed";
+import { seedDemoFonts } from "./seed-fonts";
 
 export async function ensureDatabase(url: string) {
   const target = new URL(url);
@@ -29,8 +31,9 @@ async function main() {
     const applied = await migrateToLatest(db);
     if (applied.length) console.log(`migrated: ${applied.join(", ")}`);
     if (process.argv.includes("--seed")) {
-      await seed(db);
-      console.log("seeded the demo workshop (Ember & Anvil Props)");
+      const { workshopId } = await seed(db);
+      const fonts = await seedDemoFonts(db, workshopId, storage());
+      console.log(`seeded the demo workshop (Ember & Anvil Props)${fonts ? `, with ${fonts} synthesized font${fonts === 1 ? "" : "s"}` : ""}`);
     }
   } finally {
     await db.destroy();

@@ -61,13 +61,13 @@ try {
     });
     databaseUrl = ensureAppRole(cluster);
   }
-  runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl });
+  // The fakes start first: with HB_STORAGE=s3 the seed's demo fonts go to the fake S3.
+  const fakes = await startFakes({ FAKE_GITHUB_PORT: process.env.FAKE_GITHUB_PORT ?? "0" });
+  cleanups.push(() => stopChild(fakes.child));
+  runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl, ...fakes.settings });
 
   const secretFile = path.join(dataDir, "session-secret");
   if (!existsSync(secretFile)) writeFileSync(secretFile, randomBytes(32).toString("hex"), { mode: 0o600 });
-
-  const fakes = await startFakes({ FAKE_GITHUB_PORT: process.env.FAKE_GITHUB_PORT ?? "0" });
-  cleanups.push(() => stopChild(fakes.child));
 
   buildApp();
   const appEnv = {

@@ -58,7 +58,9 @@ try {
   cleanups.push(cluster.stop);
   const base = cluster.baseUrl;
   runTsx("db/setup.ts", [], { DATABASE_URL: `${base}/hb_template` });
-  runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: `${base}/hb_e2e` });
+  // Font files of this run (the seed's synthesized demo fonts, e2e uploads) stay in the work folder.
+  const dataDir = path.join(work, "data");
+  runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: `${base}/hb_e2e`, HB_DATA_DIR: dataDir });
 
   if (only !== "e2e" && only !== "system") {
     ok = step("type-checking", bin("react-router"), ["typegen"]) && ok;
@@ -79,6 +81,7 @@ try {
       HOST: "127.0.0.1",
       PORT: port,
       DATABASE_URL: `${base}/hb_e2e`,
+      HB_DATA_DIR: dataDir,
       SESSION_SECRET: randomBytes(24).toString("hex"),
       APP_URL: `http://127.0.0.1:${port}`,
       AUTH_PROVIDER: "fake-github",

@@ -1,11 +1,14 @@
 // GET /api/builds/:buildId/config answers the stored config and its version; PUT replaces it
-// after validation, only from the version it was read at. Nothing is stored on any failure.
+// after validation, only from the version it was read at, with an optional "message" (what
+// changed); its answer names the new revision. Nothing is stored on any failure.
 import { readJsonBody, requireField } from "~/lib/web/body.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
 import { apiAnswer, fail, json } from "~/lib/web/http.server";
 import { INT4_MAX, isInt4 } from "~/lib/input/edges";
+import { getRevisionFor } from "~/lib/revisions/compare.server";
+import { readMessage } from "~/lib/forms/revision-message";
 import type { Route } from "./+types/api.builds.$buildId.config";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -25,9 +28,16 @@ export function action({ request, params }: Route.ActionArgs) {
     const config = requireField(body, "config");
     const version = requireField(body, "version");
     if (!isInt4(version)) fail(400, `"version" must be the whole number config version the config was read at (GET answers it), from 0 to ${INT4_MAX}.`);
-    const r = await storeCheckedConfig(v, b.id, config, version);
+    const note = readMessage(body && typeof body === "object" ? (body as { message?: unknown }).message : undefined);
+    if (!note.ok) fail(400, note.error);
+    const r = await storeCheckedConfig(v, b.id, config, version, { message: note.message });
     if (r.kind === "invalid") return json({ error: r.message, diagnostics: r.diagnostics }, { status: 422 });
     if (r.kind === "stale") return json({ error: r.message, currentVersion: r.currentVersion }, { status: 409 });
-    return json({ version: r.version, diagnostics: r.diagnostics });
+    const rev = await getRevisionFor(v, b.id, r.version);
+    return json({
+      version: r.version,
+      revision: rev ? { number: rev.number, savedAt: rev.createdAt.toISOString(), message: rev.message, url: `/api/builds/${b.id}/revisions/${rev.number}` } : { number: r.version },
+      diagnostics: r.diagnostics,
+    });
   });
 }

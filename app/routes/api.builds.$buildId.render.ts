@@ -1,9 +1,13 @@
 // GET /api/builds/:buildId/render?template=<id or built-in name>[&version=n][&download=1]: the
-// build's current config rendered as text (its pinned template when none is named).
+// build's current config rendered as text (its pinned template when none is named);
+// `&revision=n` renders that saved revision instead (staff and reviewers).
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { downloadName } from "~/lib/rendering/render";
-import { chooseTemplateForBuild, renderBuildOrSource } from "~/lib/rendering/service.server";
+import { chooseTemplateForBuild, renderBuildOrSource, resolveTemplate } from "~/lib/rendering/service.server";
+import { can } from "~/lib/auth/permissions";
+import { renderRevision, revisionOf, templateForRevision } from "~/lib/revisions/compare.server";
+import { readRevisionNumber } from "~/lib/revisions/params";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
 import { INT4_MAX, int4From } from "~/lib/input/edges";
 import type { Route } from "./+types/api.builds.$buildId.render";
@@ -15,6 +19,18 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const url = new URL(request.url);
     const versionText = url.searchParams.get("version");
     const version = versionText === null ? undefined : (int4From(versionText, 1) ?? fail(400, `'version' must be a whole number from 1 to ${INT4_MAX}.`));
+    const revisionText = url.searchParams.get("revision");
+    if (revisionText !== null) {
+      // One saved revision, printing its own number and save time: always the same bytes.
+      if (!can(v.role, "view:revisions")) fail(403, `Your role (${v.role}) does not see revisions.`);
+      const n = readRevisionNumber(revisionText, "revision");
+      if (!n.ok) fail(400, n.error);
+      const rev = await revisionOf(v, b, n.value);
+      const ref = url.searchParams.get("template");
+      const rt = ref ? await resolveTemplate(v, ref, version) : await templateForRevision(v, rev, null);
+      const out = await renderRevision(v, b, rev, rt);
+      return text(out.output, { headers: { "X-Template": `${rt.name}@${rt.version}` } });
+    }
     const t = await chooseTemplateForBuild(v, b, url.searchParams.get("template"), version);
     const r = await renderBuildOrSource(v, { build: b }, t);
     if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });

@@ -1,4 +1,4 @@
-import { data, Form, useActionData, useNavigation } from "react-router";
+import { data, Form, Link, useActionData, useNavigation } from "react-router";
 import { BuildMetaFields } from "~/components/BuildMetaFields";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
@@ -29,7 +29,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     summary: {
       channels: cfg.rig.channels.map((c) => `${c.name} (${c.pixels} px${c.parallelStrips > 1 ? ` × ${c.parallelStrips}` : ""})`),
       presets: cfg.presets.map((p) => p.name),
-      fonts: cfg.fonts.map((f) => ({ name: f.name, status: f.status })),
+      fonts: cfg.fonts.map((f) => ({ name: f.name, status: f.status, usedBy: cfg.presets.filter((p) => p.fontId === f.id).map((p) => p.name) })),
     },
     canEdit,
     canArchive: can(v.role, "archive:build"),
@@ -91,11 +91,17 @@ export default function BuildOverview({ loaderData }: Route.ComponentProps) {
           <ul className="mt-2 list-inside list-disc text-iron-300">{summary.channels.map((c) => <li key={c}>{c}</li>)}</ul>
           <h3 className="mt-4">Presets</h3>
           <ol className="mt-2 list-inside list-decimal text-iron-300">{summary.presets.map((p) => <li key={p}>{p}</li>)}</ol>
-          <h3 className="mt-4">Fonts</h3>
-          <ul className="mt-2 text-iron-300">
+          <h3 className="mt-4">
+            <Link to="fonts">Fonts</Link>
+          </h3>
+          <ul className="mt-2 space-y-1 text-iron-300" aria-label="Font arrival">
             {summary.fonts.map((f) => (
-              <li key={f.name}>
-                {f.name} <span className={f.status === "received" ? "text-signal-ok" : "text-signal-warning"}>({f.status})</span>
+              <li key={f.name} data-testid={`arrival-${f.name}`}>
+                {f.name}{" "}
+                <span className={f.status === "received" ? "text-signal-ok" : f.status === "invalid" ? "text-signal-error" : "text-signal-warning"}>
+                  {f.status === "received" ? "arrived" : f.status === "invalid" ? "arrived broken" : "promised, still to come"}
+                </span>
+                {f.status !== "received" && f.usedBy.length ? <span className="block text-xs text-iron-400">used by {f.usedBy.join(", ")}</span> : null}
               </li>
             ))}
           </ul>

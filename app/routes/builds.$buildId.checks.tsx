@@ -5,6 +5,7 @@ import { data, Form, useNavigation } from "react-router";
 import { DiagnosticList, type LinkedDiagnostic } from "~/components/checks/DiagnosticList";
 import { PowerCard } from "~/components/checks/PowerCard";
 import { SafetyCautions } from "~/components/SafetyCautions";
+import { MessageField } from "~/components/revisions/MessageField";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { MAX_CONFIG_BYTES } from "~/lib/web/body.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
@@ -51,7 +52,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const answer = (status: number, a: ImportAnswer, headers?: HeadersInit) => data(a, { status, headers });
   try {
     const upload = await readConfigUpload(request);
-    const r = await storeCheckedConfig(v, b.id, upload.input, upload.version);
+    const r = await storeCheckedConfig(v, b.id, upload.input, upload.version, { message: upload.message });
     if (r.kind === "invalid") return answer(422, { ok: false, message: `"${upload.fileName}" was not imported: ${r.message}`, problems: r.diagnostics, warnings: [] });
     if (r.kind === "stale") return answer(409, { ok: false, message: r.message, problems: [], warnings: [] });
     const warnings = r.diagnostics.filter((d) => d.severity !== "info");
@@ -97,6 +98,7 @@ export default function ChecksPage({ loaderData, actionData }: Route.ComponentPr
               </label>
               <input id="import-file" name="file" type="file" accept="application/json,.json" required className="field" />
             </div>
+            <MessageField id="import-message" className="min-w-64 flex-1" />
             <button type="submit" className="btn btn-primary" disabled={busy}>
               {busy ? "Importing…" : "Import"}
             </button>

@@ -1,6 +1,8 @@
 // A build rendered through a template: the output (C highlighted, or plain text), a template
 // picker, copy and download, pinning a workshop template version, and reading a generic header
 // (possibly hand-edited) back into the model to check it and make it the build's config.
+import { MessageField } from "~/components/revisions/MessageField";
+import { readMessage } from "~/lib/forms/revision-message";
 import { useState } from "react";
 import { data, Form, Link, useFetcher, useSubmit } from "react-router";
 import { CodeFrame } from "~/components/templates/CodeFrame";
@@ -57,7 +59,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   const expected = int4From(form.get("configVersion"));
   if (typeof text !== "string" || text.trim() === "") fail(400, "The form has no header text.");
   if (expected === null) fail(400, "The form must carry the config version the page was read at.");
-  const r = await applyHeader(v, b.id, text, expected);
+  const note = readMessage(form.get("message"));
+  if (!note.ok) fail(400, note.error);
+  const r = await applyHeader(v, b.id, text, expected, note.message);
   return data<ReadAnswer>({ intent: "apply", ok: r.ok, message: r.message, diagnostics: r.diagnostics }, { status: r.status });
 }
 
@@ -279,6 +283,7 @@ function ReadBack({ configVersion, canEdit }: { configVersion: number; canEdit: 
           <input type="hidden" name="intent" value="apply" />
           <input type="hidden" name="header" value={text} />
           <input type="hidden" name="configVersion" value={configVersion} />
+          <MessageField id="apply-message" className="mb-3 max-w-xl" />
           <button className="btn btn-primary" type="submit" disabled={applier.state !== "idle"}>
             Make this the build's config
           </button>

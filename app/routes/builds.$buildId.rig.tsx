@@ -1,7 +1,9 @@
 import { useState } from "react";
 import { data, Form, useActionData, useNavigation } from "react-router";
 import { Field, Select } from "~/components/Field";
+import { MessageField } from "~/components/revisions/MessageField";
 import { requireViewer } from "~/lib/auth/auth.server";
+import { readMessage } from "~/lib/forms/revision-message";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { fieldErrors } from "~/lib/forms/form-errors";
 import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/schema";
@@ -9,6 +11,7 @@ import { can } from "~/lib/auth/permissions";
 import { saveRig } from "~/lib/builds/builds.server";
 import { rigFromForm } from "~/lib/forms/rig-form";
 import { int4From } from "~/lib/input/edges";
+import { WiringPicture } from "~/components/rig/WiringPicture";
 import type { Route } from "./+types/builds.$buildId.rig";
 
 export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];
@@ -16,7 +19,9 @@ export const meta: Route.MetaFunction = () => [{ title: "Rig · Hiltbench" }];
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
-  return { rig: b.config.rig, version: b.config_version, canEdit: can(v.role, "edit:build") };
+  const title = `Wiring of ${b.name}`;
+  // The wiring picture is drawn in the browser (a worker): its layout takes too long to hold up the page.
+  return { rig: b.config.rig, config: b.config, buildId: b.id, title, version: b.config_version, canEdit: can(v.role, "edit:build") };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -25,27 +30,30 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = await request.formData();
   const parsed = rigSchema.safeParse(rigFromForm(form));
   if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error), message: "Some fields need fixing; nothing was saved." }, { status: 400 });
+  const note = readMessage(form.get("message"));
+  if (!note.ok) return data({ ok: false as const, errors: { message: note.error } as Record<string, string>, message: note.error }, { status: 400 });
   const expected = int4From(form.get("version"));
   if (expected === null) return data({ ok: false as const, errors: {}, message: "The form must carry the config version the page was read at; reload the page. Nothing was saved." }, { status: 400 });
-  const saved = await saveRig(v, b, parsed.data, expected);
+  const saved = await saveRig(v, b, parsed.data, expected, note.message);
   if (saved.kind === "invalid") return data({ ok: false as const, errors: saved.fieldErrors, message: saved.message }, { status: 422 });
   if (saved.kind === "stale")
     return data(
       { ok: false as const, errors: {}, message: "Someone saved this build since you opened it. Reload to see their change; nothing was saved." },
       { status: 409 },
     );
-  return { ok: true as const, errors: {} as Record<string, string>, message: "Rig saved." };
+  return { ok: true as const, errors: {} as Record<string, string>, message: `Rig saved as revision ${saved.version}.` };
 }
 
 type RowKey = { key: number };
 
 export default function RigPage({ loaderData }: Route.ComponentProps) {
-  const { rig, version, canEdit } = loaderData;
+  const { rig, config, buildId, title, version, canEdit } = loaderData;
   const result = useActionData<typeof action>();
   const nav = useNavigation();
   const e: Record<string, string> = result?.errors ?? {};
   return (
-    <Form method="post" className="space-y-6" key={version}>
+    <>
+    <Form method="post" id="rig-form" className="space-y-6" key={version}>
       <input type="hidden" name="version" value={version} />
       {result?.message ? (
         <p role={result.ok ? "status" : "alert"} className={result.ok ? "text-signal-ok" : "text-signal-error"}>
@@ -90,11 +98,16 @@ export default function RigPage({ loaderData }: Route.ComponentProps) {
         </div>
       </section>
       {canEdit ? (
-        <button type="submit" className="btn btn-primary" disabled={nav.state !== "idle"}>
-          Save rig
-        </button>
+        <div className="flex flex-wrap items-end gap-3">
+          <MessageField id="rig-message" className="min-w-64 flex-1" />
+          <button type="submit" className="btn btn-primary" disabled={nav.state !== "idle"}>
+            Save rig
+          </button>
+        </div>
       ) : null}
     </Form>
+    <WiringPicture config={config} buildId={buildId} title={title} formId="rig-form" />
+    </>
   );
 }
 

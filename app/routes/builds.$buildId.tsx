@@ -15,23 +15,26 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return {
     build: { id: b.id, name: b.name, status: b.status, client_name: b.client_name, archived: b.archived_at !== null },
     canEdit: can(v.role, "edit:build"),
+    canViewRevisions: can(v.role, "view:revisions"),
   };
 }
 
 const tab = ({ isActive }: { isActive: boolean }) =>
   `border-b-2 px-3 py-2 text-sm no-underline ${isActive ? "border-ember-500 text-iron-100" : "border-transparent text-iron-300 hover:text-iron-100"}`;
 
-/** The build's sections, in the order the work goes: rig, looks, checks, then the rendered config. */
+/** The build's sections, in the order the work goes: rig, looks, fonts, checks, then the rendered config. */
 const SECTIONS = [
   [".", "Overview"],
   ["rig", "Rig"],
   ["looks", "Looks"],
+  ["fonts", "Fonts"],
   ["checks", "Checks"],
   ["render", "Render"],
+  ["revisions", "Revisions"],
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
-  const { build } = loaderData;
+  const { build, canViewRevisions } = loaderData;
   return (
     <div>
       <div className="flex flex-wrap items-baseline gap-3">
@@ -41,7 +44,7 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <span className="text-iron-400">{build.client_name}</span>
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
-        {SECTIONS.map(([to, label]) => (
+        {SECTIONS.filter(([to]) => to !== "revisions" || canViewRevisions).map(([to, label]) => (
           <NavLink key={to} to={to} end={to === "."} className={tab}>
             {label}
           </NavLink>

@@ -6,6 +6,8 @@ import * as m0300 from "./20261202_0300_templates";
 import * as m0400 from "./20261202_0400_template_delete";
 import * as m0500 from "./20261202_0500_config_saved_at";
 import * as m0600 from "./20261202_0600_template_version_uses";
+import * as m0700 from "./20261202_0700_revisions";
+import * as m0800 from "./20261202_0800_fonts";
 import * as m1100 from "./20261202_1100_rate_limits";
 
 export const migrations: Record<string, Migration> = {
@@ -14,5 +16,7 @@ export const migrations: Record<string, Migration> = {
   "20261202_0400_template_delete": m0400,
   "20261202_0500_config_saved_at": m0500,
   "20261202_0600_template_version_uses": m0600,
+  "20261202_0700_revisions": m0700,
+  "20261202_0800_fonts": m0800,
   "20261202_1100_rate_limits": m1100,
 };

@@ -1,12 +1,15 @@
 // Shared Playwright fixtures: sign-in through the local fake GitHub as a fixture (the same
 // HTTP steps the browser makes, without repeated clicks), a database handle for arranging data
-// the UI cannot reach (another workshop), and a guard that fails a test on unexpected errors
-// in the page.
-import { test as base, expect, type APIRequestContext, type Page } from "@playwright/test";
+// the UI cannot reach (another workshop), a guard that fails a test on unexpected errors
+// in the page, and the accessibility check on every page a test visits (a11y.ts, decision 016).
+import { test as base, expect, type APIRequestContext, type Page, type TestInfo } from "@playwright/test";
+import { A11yError, a11yViolations, expectAccessible, showsHtml } from "./a11y";
 import { createHash, randomBytes } from "node:crypto";
 import pg from "pg";
 
 export const BASE_URL = process.env.BASE_URL ?? "http://127.0.0.1:5178";
+/** The accessibility check runs only with HB_A11Y=1 until the whole e2e suite has passed with it (decision 016, "Not done"). */
+export const A11Y_CHECK = process.env.HB_A11Y === "1";
 
 export async function signInAs(page: Page, login: string, next = "/builds") {
   await signInRequest(page.request, login, next);
@@ -32,16 +35,32 @@ type Fixtures = { signIn: (login: string) => Promise<void>; sql: pg.Pool; pageEr
 export const test = base.extend<Fixtures>({
   // After a full page load, wait until React has hydrated (the root layout sets
   // html[data-hydrated]); a click that lands before then would hit a button with no handler yet.
-  page: async ({ page }, use) => {
+  // Then check the page for accessibility (once per address in a test); pages reached by links
+  // and forms, and the page as the test leaves it, are checked at the end. Time spent checking
+  // is added to the test's timeout (the checks at the end have the fixture's own), so a slow machine never fails a test for it.
+  page: [async ({ page }, use, testInfo) => {
     const goto = page.goto.bind(page);
+    const visited = new Set<string>();
+    const checkedHere = new Set<string>();
+    page.on("framenavigated", (frame) => {
+      if (frame === page.mainFrame()) visited.add(frame.url());
+    });
     page.goto = async (url, options) => {
       const response = await goto(url, options);
-      if (response && (response.headers()["content-type"] ?? "").startsWith("text/html"))
+      if (response && (response.headers()["content-type"] ?? "").startsWith("text/html")) {
         await page.locator("html[data-hydrated]").waitFor({ state: "attached", timeout: 15_000 });
+        const key = urlKey(page.url());
+        if (A11Y_CHECK && !checkedHere.has(key)) {
+          await timed(testInfo, () => expectAccessible(page, `after page.goto(${JSON.stringify(url)}) on ${page.url()}`));
+          checkedHere.add(key);
+          if (response.status() < 400) checkedThisRun.add(key);
+        }
+      }
       return response;
     };
     await use(page);
-  },
+    if (A11Y_CHECK && testInfo.status === testInfo.expectedStatus) await checkAtTestEnd(page, visited);
+  }, { scope: "test", timeout: 300_000 }], // its own time for the checks at the end, apart from the test's
   pageErrors: async ({ page }, use) => {
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(`pageerror: ${e.message}`));
@@ -64,6 +83,63 @@ export const test = base.extend<Fixtures>({
 });
 
 export { expect };
+
+/** Pages (path and query) found clean in this run: a page reached by a link is opened again at a test's end only if no test has checked it. */
+const checkedThisRun = new Set<string>();
+const urlKey = (url: string) => {
+  const u = new URL(url);
+  return u.pathname + u.search;
+};
+
+/** Runs `f` with room to finish (a scan can take tens of seconds on a loaded machine), then gives the test the time it took on top of its timeout. */
+const CHECK_ROOM_MS = 120_000;
+async function timed<T>(testInfo: TestInfo, f: () => Promise<T>): Promise<T> {
+  const started = Date.now();
+  testInfo.setTimeout(testInfo.timeout + CHECK_ROOM_MS);
+  try {
+    return await f();
+  } finally {
+    testInfo.setTimeout(testInfo.timeout - CHECK_ROOM_MS + (Date.now() - started));
+  }
+}
+
+/** The page as the test left it, then each page of the app it navigated to that no check has seen yet, opened afresh. */
+async function checkAtTestEnd(page: Page, visited: Set<string>) {
+  const failures: A11yError[] = [];
+  const origin = new URL(BASE_URL).origin;
+  const unchecked = [...visited].filter((u) => u.startsWith(origin) && !checkedThisRun.has(urlKey(u)));
+
+  if (!page.isClosed()) {
+    await (async () => {
+      await page.waitForLoadState("load").catch(() => {});
+      if (!(await showsHtml(page))) return;
+      await page.locator("html[data-hydrated]").waitFor({ state: "attached", timeout: 5_000 }).catch(() => {});
+      // A navigation the test started last may still replace the document; check what it lands on.
+      const violations = await a11yViolations(page).catch(async () => {
+        await page.waitForLoadState("load");
+        return a11yViolations(page);
+      });
+      if (violations.length > 0) failures.push(new A11yError(`at the end of the test on ${page.url()}`, violations));
+    })();
+  }
+
+  for (const url of unchecked) {
+    await (async () => {
+      const fresh = await page.context().newPage();
+      try {
+        const response = await fresh.goto(url);
+        if (!response || !(response.headers()["content-type"] ?? "").startsWith("text/html")) return;
+        await fresh.locator("html[data-hydrated]").waitFor({ state: "attached", timeout: 15_000 });
+        const violations = await a11yViolations(fresh);
+        if (violations.length > 0) failures.push(new A11yError(`on ${url} (reached during the test, opened again at its end)`, violations));
+        else if (response.status() < 400) checkedThisRun.add(urlKey(url));
+      } finally {
+        await fresh.close();
+      }
+    })();
+  }
+  if (failures.length > 0) throw new Error(failures.map((f) => f.message).join("\n\n"));
+}
 
 /** A personal API token for `login`, stored as the app stores them (hash and prefix), as a script would hold it. */
 export async function tokenFor(sql: pg.Pool, login: string, name = "e2e"): Promise<string> {

@@ -100,7 +100,7 @@ test("a builder edits a look with live checks, reorders, undoes, saves and finds
     await expect(page).toHaveURL(/\/looks$/);
 
     await page.getByRole("button", { name: "Save", exact: true }).click();
-    await expect(page.getByTestId("save-message")).toContainText("Saved as version");
+    await expect(page.getByTestId("save-message")).toContainText("Saved as revision");
     await expect(page.getByText("All changes saved")).toBeVisible();
 
     const stored = await storedConfig(sql, kestrel.id);

@@ -7,9 +7,9 @@ import { test, expect, signInRequest, buildIdByName, BASE_URL } from "./fixtures
 
 type Who = "anonymous" | "owner" | "builder" | "reviewer" | "client";
 const LOGINS: Record<Exclude<Who, "anonymous">, string> = { owner: "demo-owner", builder: "demo-builder", reviewer: "demo-reviewer", client: "client-one" };
-type Outcome = "ok" | "bad" | "403" | "404" | "405" | "login" | "401" | "redirect";
+type Outcome = "ok" | "bad" | "403" | "404" | "405" | "415" | "login" | "401" | "redirect";
 type Case = { route: string; method: "GET" | "POST" | "PUT"; path: (ids: Ids) => string; form?: Record<string, string>; json?: unknown; expect: Record<Who, Outcome> };
-type Ids = { kestrel: string; harrier: string; template: string };
+type Ids = { kestrel: string; harrier: string; template: string; kestrelSound: string; harrierSound: string };
 
 const all = (o: Outcome): Record<Who, Outcome> => ({ anonymous: o, owner: o, builder: o, reviewer: o, client: o });
 const staff = (ok: Outcome, others: Outcome, anon: Outcome = "login"): Record<Who, Outcome> => ({ anonymous: anon, owner: ok, builder: ok, reviewer: others, client: others });
@@ -45,6 +45,8 @@ const CASES: Case[] = [
   { route: "/api/builds/:buildId", method: "GET", path: (i) => `/api/builds/${i.harrier}`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.kestrel}/looks.png?preset=ashfall&channel=crystal`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/looks.png", method: "GET", path: (i) => `/api/builds/${i.harrier}/looks.png?preset=glasswind&channel=crystal`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "/api/builds/:buildId/wiring.svg", method: "GET", path: (i) => `/api/builds/${i.kestrel}/wiring.svg`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/wiring.svg", method: "GET", path: (i) => `/api/builds/${i.harrier}/wiring.svg`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/validate", method: "POST", path: () => "/api/validate", json: { notConfig: true }, expect: { ...all("bad"), anonymous: "401" } },
   { route: "/api/validate", method: "GET", path: () => "/api/validate", expect: { ...all("405"), anonymous: "401" } },
   { route: "/api/builds/:buildId/config", method: "GET", path: (i) => `/api/builds/${i.kestrel}/config`, expect: { ...all("ok"), anonymous: "401" } },
@@ -68,6 +70,29 @@ const CASES: Case[] = [
   { route: "/api/render", method: "GET", path: () => "/api/render", expect: { ...all("405"), anonymous: "401" } },
   { route: "/api/builds/:buildId/render", method: "GET", path: (i) => `/api/builds/${i.kestrel}/render`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/render", method: "GET", path: (i) => `/api/builds/${i.harrier}/render?template=readable-copy`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  // Revisions and comparisons: staff and reviewers; clients see none (decision 012).
+  { route: "/builds/:buildId/revisions", method: "GET", path: (i) => `/builds/${i.kestrel}/revisions`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/revisions", method: "POST", path: (i) => `/builds/${i.kestrel}/revisions`, form: { intent: "restore", n: "" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId/compare", method: "GET", path: (i) => `/builds/${i.kestrel}/compare?from=1&to=1`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/compare", method: "GET", path: (i) => `/builds/${i.kestrel}/compare?from=x&to=1`, expect: { ...staff("bad", "403"), reviewer: "bad" } },
+  { route: "/api/builds/:buildId/revisions", method: "GET", path: (i) => `/api/builds/${i.kestrel}/revisions`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/revisions/:n", method: "GET", path: (i) => `/api/builds/${i.kestrel}/revisions/1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/diff", method: "GET", path: (i) => `/api/builds/${i.kestrel}/diff?from=1&to=1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/diff", method: "GET", path: (i) => `/api/builds/${i.harrier}/diff?from=1`, expect: { ...staff("bad", "403", "401"), reviewer: "bad" } },
+  { route: "/builds/:buildId/fonts", method: "GET", path: (i) => `/builds/${i.kestrel}/fonts`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/fonts", method: "GET", path: (i) => `/builds/${i.harrier}/fonts`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
+  { route: "/builds/:buildId/fonts", method: "POST", path: (i) => `/builds/${i.kestrel}/fonts`, form: { intent: "add-font", name: "" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId/fonts", method: "POST", path: (i) => `/builds/${i.kestrel}/fonts`, form: { intent: "save-layout", name: "", rules: "" }, expect: staff("bad", "403") },
+  // A form that is not multipart: refused as such for those who may upload, 403 before reading it for the rest.
+  { route: "/api/builds/:buildId/fonts/:fontId/files", method: "POST", path: (i) => `/api/builds/${i.kestrel}/fonts/northlight/files`, form: { files: "" }, expect: staff("415", "403", "401") },
+  { route: "/api/builds/:buildId/fonts/:fontId/files", method: "POST", path: (i) => `/api/builds/${i.kestrel}/fonts/no-such-font/files`, form: { files: "" }, expect: staff("404", "403", "401") },
+  { route: "/builds/:buildId/fonts/audio/:sha256", method: "GET", path: (i) => `/builds/${i.kestrel}/fonts/audio/${i.kestrelSound}`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/fonts/audio/:sha256", method: "GET", path: (i) => `/builds/${i.harrier}/fonts/audio/${i.harrierSound}`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
+  // A file that exists, asked for through a build that does not hold it.
+  { route: "/builds/:buildId/fonts/audio/:sha256", method: "GET", path: (i) => `/builds/${i.kestrel}/fonts/audio/${"0".repeat(64)}`, expect: { ...all("404"), anonymous: "login" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.harrier}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?names=9.9`, expect: { ...all("bad"), anonymous: "401" } },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 
@@ -91,7 +116,9 @@ for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who
     const ws = (await sql.query("SELECT workshop_id FROM builds WHERE name = 'Kestrel' LIMIT 1")).rows[0].workshop_id;
     const template = (await sql.query("INSERT INTO templates (workshop_id, name) VALUES ($1, $2) RETURNING id", [ws, `matrix-${who}-${Date.now()}`])).rows[0].id;
     await sql.query("INSERT INTO template_versions (template_id, version, source) VALUES ($1, 1, 'one'), ($1, 2, 'two')", [template]);
-    const ids = { kestrel: await buildIdByName(sql, "Kestrel"), harrier: await buildIdByName(sql, "Harrier"), template };
+    const sound = async (name: string) =>
+      (await sql.query("SELECT f.sha256 FROM font_files f JOIN font_uploads u ON u.id = f.upload_id JOIN builds b ON b.id = u.build_id WHERE b.name = $1 ORDER BY f.path LIMIT 1", [name])).rows[0].sha256 as string;
+    const ids = { kestrel: await buildIdByName(sql, "Kestrel"), harrier: await buildIdByName(sql, "Harrier"), template, kestrelSound: await sound("Kestrel"), harrierSound: await sound("Harrier") };
     const api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Origin: BASE_URL } });
     if (who !== "anonymous") await signInRequest(api, LOGINS[who]);
     const failures: string[] = [];

@@ -48,9 +48,9 @@ describe.runIf(hasDatabase)("builds table and tokens (PostgreSQL)", () => {
     const b = await db.selectFrom("builds").select(["id", "config_version"]).where("name", "=", "Kestrel").executeTakeFirstOrThrow();
     const cfg = demoConfig();
     cfg.rig.power.wireGaugeAwg = 20;
-    expect(await saveConfig(db, ws, b.id, cfg, b.config_version)).toBe(b.config_version + 1);
+    expect(await saveConfig(db, ws, b.id, cfg, b.config_version, { authorId: null, counts: { errors: 0, warnings: 0 } })).toBe(b.config_version + 1);
     cfg.rig.power.wireGaugeAwg = 26;
-    expect(await saveConfig(db, ws, b.id, cfg, b.config_version)).toBeNull();
+    expect(await saveConfig(db, ws, b.id, cfg, b.config_version, { authorId: null, counts: { errors: 0, warnings: 0 } })).toBeNull();
     const now = await db.selectFrom("builds").select("config").where("id", "=", b.id).executeTakeFirstOrThrow();
     expect(now.config.rig.power.wireGaugeAwg).toBe(20);
   });

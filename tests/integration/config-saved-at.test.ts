@@ -72,7 +72,7 @@ describe.runIf(hasDatabase)("the saved time a render prints (PostgreSQL)", () =>
     await tick();
     const next = demoConfig();
     next.rig.power.brightnessCap = 0.6;
-    expect(await saveConfig(db, ws, id, next, t0.config_version)).toBe(t0.config_version + 1);
+    expect(await saveConfig(db, ws, id, next, t0.config_version, { authorId: null, counts: { errors: 0, warnings: 0 } })).toBe(t0.config_version + 1);
     const t1 = await times();
     expect(t1.config_saved_at.getTime()).toBeGreaterThan(t0.config_saved_at.getTime());
     expect(t1.config_saved_at).toEqual(t1.updated_at);
@@ -89,7 +89,7 @@ describe.runIf(hasDatabase)("the saved time a render prints (PostgreSQL)", () =>
     expect(savedLine(await header())).not.toBe(savedLine(after));
 
     // A stale save stores nothing and moves nothing.
-    expect(await saveConfig(db, ws, id, demoConfig(), t1.config_version)).toBeNull();
+    expect(await saveConfig(db, ws, id, demoConfig(), t1.config_version, { authorId: null, counts: { errors: 0, warnings: 0 } })).toBeNull();
     expect((await times()).config_saved_at).toEqual(t2.config_saved_at);
   });
 

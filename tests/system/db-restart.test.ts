@@ -76,7 +76,9 @@ describe("a database restart under traffic", () => {
     };
     const traffic = Promise.all([...buildIds.map((id, i) => writer(id, i)), reader(), reader()]);
 
-    await sleep(1000);
+    // Wait for traffic to be under way (a busy machine can take seconds for the first save).
+    for (let i = 0; i < 300 && saves === 0; i++) await sleep(100);
+    await sleep(500);
     const before = saves;
     expect(before).toBeGreaterThan(0);
 

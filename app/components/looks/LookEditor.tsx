@@ -7,6 +7,10 @@ import type { Diagnostic } from "~/lib/checks/diagnostics";
 import type { Config } from "~/lib/config/schema";
 import { indexDiagnostics } from "~/lib/looks/diagnostic-index";
 import { canRedo, canUndo, editorReducer, initEditor, isDirty, type EditorAction } from "~/lib/looks/editor-state";
+import { diffModels } from "~/lib/model-diff";
+import { MessageField } from "../revisions/MessageField";
+import { ModelChanges } from "../revisions/ModelChanges";
+import { ConflictPanel, type Stale } from "./ConflictPanel";
 import { EditorContext } from "./controls";
 import { LivePreview } from "./LivePreview";
 import { LookColumn } from "./LookColumn";
@@ -23,6 +27,9 @@ export function LookEditor({ buildId, initial, version: initialVersion, canEdit 
   const [version, setVersion] = useState(initialVersion);
   const [saving, setSaving] = useState(false);
   const [message, setMessage] = useState<SaveMessage>(null);
+  const [note, setNote] = useState("");
+  const [stale, setStale] = useState<Stale | null>(null);
+  const [showChanges, setShowChanges] = useState(false);
   const checks = useLiveChecks(state.config);
   const index = useMemo(() => indexDiagnostics(checks.diagnostics), [checks.diagnostics]);
   const dirty = isDirty(state);
@@ -46,22 +53,29 @@ export function LookEditor({ buildId, initial, version: initialVersion, canEdit 
       const res = await fetch(`/api/builds/${buildId}/config`, {
         method: "PUT",
         headers: { "Content-Type": "application/json", Accept: "application/json" },
-        body: JSON.stringify({ config: sent, version }),
+        body: JSON.stringify({ config: sent, version, ...(note.trim() ? { message: note } : {}) }),
       });
       const body = (await res.json().catch(() => null)) as { version?: number; diagnostics?: Diagnostic[]; error?: string } | null;
       if (res.ok && typeof body?.version === "number") {
         setVersion(body.version);
         dispatch({ type: "saved", config: sent });
-        setMessage({ tone: "ok", text: `Saved as version ${body.version}.` });
+        setNote("");
+        setStale(null);
+        setMessage({ tone: "ok", text: `Saved as revision ${body.version}.` });
       } else if (res.status === 422 && Array.isArray(body?.diagnostics)) {
         checks.accept(sent, body.diagnostics);
         const errs = body.diagnostics.filter((d) => d.severity === "error");
         setMessage({ tone: "error", text: `Not saved: the config has ${errs.length} error${errs.length === 1 ? "" : "s"}. ${errs[0]?.message ?? ""}` });
       } else if (res.status === 409) {
-        setMessage({
-          tone: "error",
-          text: "Not saved: someone else saved this build after you opened it. Nothing was changed. Reload the page to see their version (your edits here are not kept on reload).",
-        });
+        // Show what they changed and offer to merge: fetch what is stored now.
+        const now = await fetch(`/api/builds/${buildId}/config`, { headers: { Accept: "application/json" } });
+        const cur = (await now.json().catch(() => null)) as { config?: Config; version?: number } | null;
+        if (now.ok && cur?.config && typeof cur.version === "number") {
+          setStale({ base: state.saved, mine: sent, theirs: cur.config, version: cur.version });
+          setMessage({ tone: "error", text: `Not saved: someone else saved this build after you opened it (it is now version ${cur.version}). Your edits are still here.` });
+        } else {
+          setMessage({ tone: "error", text: "Not saved: someone else saved this build after you opened it, and their version could not be read. Your edits are still here." });
+        }
       } else {
         setMessage({ tone: "error", text: `Not saved: ${body?.error ?? `the server answered ${res.status}`}.` });
       }
@@ -128,7 +142,13 @@ export function LookEditor({ buildId, initial, version: initialVersion, canEdit 
               <button id="looks-save" type="button" className="btn btn-primary" onClick={save} disabled={saving || !dirty} aria-keyshortcuts="Control+S">
                 {saving ? "Saving…" : "Save"}
               </button>
+              <MessageField id="looks-message" className="min-w-56" value={note} onChange={setNote} />
               <span className="text-xs text-iron-400">{dirty ? "Unsaved changes" : "All changes saved"} · version {version}</span>
+              {dirty ? (
+                <button type="button" className="text-xs text-iron-300 underline" aria-expanded={showChanges} onClick={() => setShowChanges((x) => !x)}>
+                  {showChanges ? "Hide my changes" : "Show my changes"}
+                </button>
+              ) : null}
             </>
           )}
           <span className="ml-auto text-xs" aria-live="polite" data-testid="check-status">
@@ -149,6 +169,29 @@ export function LookEditor({ buildId, initial, version: initialVersion, canEdit 
           <p role={message.tone === "error" ? "alert" : "status"} data-testid="save-message" className={message.tone === "ok" ? "text-signal-ok" : message.tone === "error" ? "text-signal-error" : "text-iron-300"}>
             {message.text}
           </p>
+        ) : null}
+        {showChanges && dirty ? (
+          <section className="card" aria-label="Unsaved changes">
+            <ModelChanges changes={diffModels(state.saved, state.config).changes} testId="unsaved-changes" />
+          </section>
+        ) : null}
+        {stale ? (
+          <ConflictPanel
+            stale={stale}
+            onCancel={() => setStale(null)}
+            onReload={() => {
+              dispatch({ type: "reset", config: stale.theirs });
+              setVersion(stale.version);
+              setStale(null);
+              setMessage({ tone: "info", text: `Showing version ${stale.version}; your edits were dropped.` });
+            }}
+            onMerged={(merged) => {
+              dispatch({ type: "rebase", base: stale.theirs, config: merged });
+              setVersion(stale.version);
+              setStale(null);
+              setMessage({ tone: "info", text: `Your changes are on top of version ${stale.version}. Check them and save.` });
+            }}
+          />
         ) : null}
         {state.notice ? (
           <p role="status" className="flex items-center gap-3 text-sm text-iron-300">

@@ -93,10 +93,11 @@ export function PowerPanel({ config, presetId }: { config: Config; presetId: str
         <>
           <PowerFigures view={view} />
           <figure>
+            {/* Hidden from assistive technology (the caption says it in words), so it must not take focus either: no accessibility layer. */}
             <div className="h-52 w-full" aria-hidden="true">
               {mounted ? (
                 <ResponsiveContainer width="100%" height="100%">
-                  <LineChart data={f.series} margin={{ top: 8, right: 12, bottom: 4, left: 0 }}>
+                  <LineChart data={f.series} margin={{ top: 8, right: 12, bottom: 4, left: 0 }} accessibilityLayer={false}>
                     <CartesianGrid stroke="#262a33" strokeDasharray="3 3" />
                     <XAxis dataKey="t" type="number" domain={[0, 7.5]} ticks={[0, 1.5, 2.5, 3.5, 5.5, 6.5, 7.5]} tickFormatter={(v: number) => `${v}s`} stroke="#8d94a3" fontSize={11} />
                     <YAxis domain={[0, (max: number) => Math.max(max, rating) * 1.05]} tickFormatter={(v: number) => `${v.toFixed(1)}`} stroke="#8d94a3" fontSize={11} width={36} unit="A" />

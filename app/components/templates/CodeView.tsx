@@ -7,17 +7,9 @@ import { EditorView } from "@codemirror/view";
 import CodeMirror, { type Extension } from "@uiw/react-codemirror";
 import { useEffect, useMemo, useRef } from "react";
 import { hbTemplateLanguage } from "~/lib/template/codemirror";
+import { codeTheme } from "./codeTheme";
 
 export type CodeLanguage = "template" | "c" | "text";
-
-const theme = EditorView.theme(
-  {
-    "&": { backgroundColor: "var(--color-soot-900)", fontSize: "13px" },
-    ".cm-gutters": { backgroundColor: "var(--color-soot-900)", borderRight: "1px solid var(--color-soot-700)" },
-    ".cm-content": { fontFamily: "ui-monospace, SFMono-Regular, Menlo, monospace" },
-  },
-  { dark: true },
-);
 
 export function CodeView(props: {
   value: string;
@@ -34,7 +26,10 @@ export function CodeView(props: {
   const { value, language, readOnly = false, onChange, diagnostics, height = "32rem", label, testId, jumpTo } = props;
   const view = useRef<EditorView | null>(null);
   const extensions = useMemo<Extension[]>(() => {
-    const ext: Extension[] = [theme, EditorView.contentAttributes.of({ "aria-label": label })];
+    // The content says it takes focus: a read-only view is not contenteditable and would be out of
+    // the keyboard's reach (a scrollable region nobody can scroll without a mouse), and checkers
+    // do not count contenteditable as focusable.
+    const ext: Extension[] = [EditorView.contentAttributes.of({ "aria-label": label, tabindex: "0" })];
     // linter(null) runs no linter; it makes the diagnostics' state part of the base config, so
     // the wrapper's reconfigure right after creation keeps the diagnostics a page loaded with
     // (otherwise setDiagnostics adds that state on the side and the reconfigure drops it).
@@ -61,7 +56,7 @@ export function CodeView(props: {
       <CodeMirror
         value={value}
         height={height}
-        theme="dark"
+        theme={codeTheme}
         editable={!readOnly}
         readOnly={readOnly}
         extensions={extensions}

@@ -9,7 +9,10 @@ describe("role table", () => {
   it("lets builders edit builds but not manage members; reviewers edit nothing", () => {
     expect(can("builder", "edit:build")).toBe(true);
     expect(can("builder", "manage:members")).toBe(false);
-    expect(PERMISSIONS.filter((p) => can("reviewer", p) && /edit|create|archive|manage/.test(p))).toEqual([]);
+    expect(PERMISSIONS.filter((p) => can("reviewer", p) && /edit|create|archive|manage|upload/.test(p))).toEqual([]);
+  });
+  it("lets owners and builders upload fonts, never reviewers or clients", () => {
+    expect((["owner", "builder", "reviewer", "client"] as const).filter((r) => can(r, "upload:font"))).toEqual(["owner", "builder"]);
   });
   it("lets anyone who sees a build read a header back on its Render view, and only editors apply or pin", () => {
     expect((["owner", "builder", "reviewer", "client"] as const).filter((r) => can(r, RENDER_VIEW_ACTIONS.read))).toEqual(["owner", "builder", "reviewer", "client"]);

@@ -12,13 +12,15 @@ export const PERMISSIONS = [
   "use:api",
   "view:templates", // the workshop's templates and their editor (read-only without edit:template)
   "edit:template",
+  "view:revisions", // a build's revisions, their configs and comparisons (not clients)
+  "upload:font", // send a font's files to a build (clients send theirs to the workshop, which uploads them)
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
 const table: Record<Role, ReadonlySet<Permission>> = {
   owner: new Set(PERMISSIONS),
-  builder: new Set(["view:builds", "create:build", "edit:build", "archive:build", "view:members", "use:api", "view:templates", "edit:template"]),
-  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates"]),
+  builder: new Set(["view:builds", "create:build", "edit:build", "archive:build", "view:members", "use:api", "view:templates", "edit:template", "view:revisions", "upload:font"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions"]),
   client: new Set(["view:builds", "use:api"]),
 };
 

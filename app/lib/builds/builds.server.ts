@@ -37,7 +37,10 @@ export async function createBuildFor(v: Viewer, meta: BuildMeta): Promise<Detail
   const clients = await clientsOf(v);
   const chosen = clients.find((c) => c.id === meta.clientUserId);
   if (meta.clientUserId && !chosen) return notAClient;
-  const { id } = await createBuild(db(), v.workshop.id, { ...meta, clientName: meta.clientName || chosen?.display_name || "" }, starterConfig());
+  const config = starterConfig();
+  const found = validateConfig(config, { power: powerModeFor(config) }).diagnostics;
+  const counts = { errors: found.filter((d) => d.severity === "error").length, warnings: found.filter((d) => d.severity === "warning").length };
+  const { id } = await createBuild(db(), v.workshop.id, { ...meta, clientName: meta.clientName || chosen?.display_name || "" }, config, { authorId: v.user.id, counts });
   return { ok: true, id };
 }
 
@@ -60,9 +63,9 @@ export type RigSave = { kind: "saved"; version: number } | { kind: "invalid"; me
  * such as a new build's missing presets, do not block a rig edit; decision 009). Errors under
  * `rig` come back as the form's field errors.
  */
-export async function saveRig(v: Viewer, b: { id: string; config: Config }, rig: Rig, expectedVersion: number): Promise<RigSave> {
+export async function saveRig(v: Viewer, b: { id: string; config: Config }, rig: Rig, expectedVersion: number, message?: string | null): Promise<RigSave> {
   const known = () => validateConfig(b.config, { power: powerModeFor(b.config) }).diagnostics;
-  const r: StoreResult = await storeCheckedConfig(v, b.id, { ...b.config, rig }, expectedVersion, { known });
+  const r: StoreResult = await storeCheckedConfig(v, b.id, { ...b.config, rig }, expectedVersion, { known, message });
   if (r.kind === "saved") return { kind: "saved", version: r.version };
   if (r.kind === "stale") return { kind: "stale" };
   const { fieldErrors, elsewhere } = rigErrorsForForm(r.errors);

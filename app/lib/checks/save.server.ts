@@ -23,6 +23,14 @@ export type StoreOptions = {
    * A function is called only when the new config has errors (validating costs up to a second).
    */
   known?: readonly Diagnostic[] | (() => readonly Diagnostic[]);
+  /** The revision's author (the viewer) and optional "what changed" message. */
+  author?: string | null;
+  message?: string | null;
+  /**
+   * Error codes that do not stop this save. A font upload records a font whose files failed
+   * their checks ("font-invalid"): the build is then truthfully in error, and says why.
+   */
+  acceptErrors?: readonly string[];
 };
 
 const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.path === b.path;
@@ -30,7 +38,7 @@ const sameDiagnostic = (a: Diagnostic, b: Diagnostic) => a.code === b.code && a.
 /** The same with the database passed in (tests, transactions). */
 export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: string, buildId: string, input: unknown, expectedVersion: number, opts: StoreOptions = {}): Promise<StoreResult> {
   const { config, diagnostics } = validateConfig(input, { power: powerModeFor(input) });
-  let errors = diagnostics.filter((d) => d.severity === "error");
+  let errors = diagnostics.filter((d) => d.severity === "error" && !opts.acceptErrors?.includes(d.code));
   if (errors.length > 0 && opts.known) {
     const known = typeof opts.known === "function" ? opts.known() : opts.known;
     errors = errors.filter((d) => !known.some((k) => sameDiagnostic(k, d)));
@@ -41,7 +49,8 @@ export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: str
     const n = errors.length;
     return { kind: "invalid", message: `The config has ${n} error${n === 1 ? "" : "s"}; nothing was stored.`, diagnostics, errors };
   }
-  const version = await saveConfig(db, workshopId, buildId, config, expectedVersion);
+  const counts = { errors: diagnostics.filter((d) => d.severity === "error").length, warnings: diagnostics.filter((d) => d.severity === "warning").length };
+  const version = await saveConfig(db, workshopId, buildId, config, expectedVersion, { authorId: opts.author ?? null, message: opts.message, counts });
   if (version === null) {
     const current = await currentConfigVersion(db, workshopId, buildId);
     return {
@@ -53,7 +62,7 @@ export async function storeCheckedConfigIn(db: Kysely<Database>, workshopId: str
   return { kind: "saved", version, diagnostics };
 }
 
-/** Replace the build's config as this viewer's workshop. */
+/** Replace the build's config as this viewer's workshop; the viewer is the revision's author. */
 export function storeCheckedConfig(v: Viewer, buildId: string, input: unknown, expectedVersion: number, opts: StoreOptions = {}): Promise<StoreResult> {
-  return storeCheckedConfigIn(appDb(), v.workshop.id, buildId, input, expectedVersion, opts);
+  return storeCheckedConfigIn(appDb(), v.workshop.id, buildId, input, expectedVersion, { ...opts, author: v.user.id });
 }

@@ -68,6 +68,17 @@ const ROWS: Row[] = [
     trigger: (c) => void (c.fonts[0].cues = c.fonts[0].cues.filter((q) => q !== "clash")),
     pass: (c) => void (c.fonts[0].cues = c.fonts[0].cues.filter((q) => q !== "boot")),
   },
+  {
+    // The looks answer drag; with that hold gone only the drag control still wants the sound.
+    code: "font-missing-control-cue",
+    trigger: (c) => {
+      c.presets[0].looks.blade.layers = blade(c).filter((l) => !(l.kind === "hold" && l.event === "drag"));
+      c.fonts[0].cues = c.fonts[0].cues.filter((q) => q !== "drag");
+    },
+    pass: (c) => void (c.fonts[0].cues = c.fonts[0].cues.filter((q) => q !== "drag")),
+  },
+  // The demo's ignition wipe takes 340 ms: a 2 s ignite sound is far longer, 400 ms lands with it.
+  { code: "wipe-off-font-sound", trigger: (c) => void (c.fonts[0].igniteMs = 2000), pass: (c) => void (c.fonts[0].igniteMs = 400) },
   { code: "font-unused", trigger: (c) => void c.fonts.push({ id: "squall", name: "Squall", folder: "squall", status: "received", cues: ["hum"] }) },
   {
     code: "blade-without-ignition-wipe",

@@ -8,6 +8,7 @@ import { DiagnosticSink, sortDiagnostics, type Diagnostic } from "./diagnostics"
 import { buildContext, walkLayers } from "./rules/context";
 import { completenessRules } from "./rules/completeness";
 import { powerLayerCheck, powerRules } from "./rules/power";
+import { fontRules } from "./rules/fonts";
 import { referenceRules } from "./rules/references";
 import { rigLayerCheck, rigRules } from "./rules/rig";
 import { timingLayerCheck } from "./rules/timing";
@@ -47,6 +48,7 @@ export function validateConfig(input: unknown, options: ValidateOptions = {}): V
   const ctx = buildContext(config, power, sink);
   referenceRules(ctx);
   completenessRules(ctx);
+  fontRules(ctx);
   rigRules(ctx);
   powerRules(ctx);
   // Per-layer checks share one walk over all looks.

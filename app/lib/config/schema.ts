@@ -115,6 +115,9 @@ export const fontSchema = z.strictObject({
   status: z.enum(["promised", "received", "invalid"]),
   /** Cues the received files provide (empty while promised). */
   cues: z.array(cueSchema).max(CUES.length),
+  /** Length of the font's first ignite and retract sounds, set when its files are checked. */
+  igniteMs: finite().min(0).max(600000).optional(),
+  retractMs: finite().min(0).max(600000).optional(),
 });
 
 // ---------------------------------------------------------------- layers and looks

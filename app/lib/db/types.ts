@@ -84,6 +84,30 @@ export interface TemplateVersionsTable {
   uses: ColumnType<TemplateUses | null, string | null | undefined, string | null>;
 }
 
+/**
+ * One saved config of a build (migration 0700). Immutable: a trigger refuses UPDATE and DELETE
+ * (apart from the database's own cascades: the build deleted, the author's account deleted).
+ */
+export interface ConfigRevisionsTable {
+  id: Generated<string>;
+  build_id: string;
+  /** Copied from the build, for scoping reads; no foreign key (see the migration). */
+  workshop_id: string;
+  /** The build's `config_version` after this save; unique per build. */
+  number: number;
+  config: ColumnType<Config, string, never>;
+  /** Who saved it; null for backfilled rows and deleted accounts. */
+  author_id: string | null;
+  /** Equal to the build's `config_saved_at` for this save: renders of the revision print it. */
+  created_at: Timestamp;
+  message: string | null;
+  /** The build's template pin at that moment (no foreign key: a record, not a reference). */
+  template_id: string | null;
+  template_version: number | null;
+  error_count: Generated<number>;
+  warning_count: Generated<number>;
+}
+
 export interface SessionsTable {
   id: string;
   data: ColumnType<Record<string, unknown>, string, string>;
@@ -101,6 +125,43 @@ export interface ApiTokensTable {
   revoked_at: Date | null;
 }
 
+export interface StoredFilesTable {
+  sha256: string;
+  size: number;
+  storage: "disk" | "s3";
+  key: string;
+  created_at: Timestamp;
+}
+
+export interface FontUploadsTable {
+  id: Generated<string>;
+  build_id: string;
+  font_id: string;
+  layout_name: string;
+  status: "received" | "invalid";
+  /** The font report (app/lib/fonts/report.ts) as it was when the files were accepted. */
+  report: ColumnType<unknown, string, string>;
+  uploaded_by: string | null;
+  created_at: Timestamp;
+}
+
+export interface FontFilesTable {
+  upload_id: string;
+  path: string;
+  sha256: string;
+  size: number;
+  cue: string | null;
+  duration_ms: number;
+}
+
+export interface FontLayoutsTable {
+  id: Generated<string>;
+  workshop_id: string;
+  name: string;
+  rules: ColumnType<{ cue: string; pattern: string }[], string, string>;
+  created_at: Timestamp;
+}
+
 export interface Database {
   workshops: WorkshopsTable;
   users: UsersTable;
@@ -111,6 +172,11 @@ export interface Database {
   api_tokens: ApiTokensTable;
   templates: TemplatesTable;
   template_versions: TemplateVersionsTable;
+  config_revisions: ConfigRevisionsTable;
+  stored_files: StoredFilesTable;
+  font_uploads: FontUploadsTable;
+  font_files: FontFilesTable;
+  font_layouts: FontLayoutsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
@@ -119,3 +185,5 @@ export type NewBuild = Insertable<BuildsTable>;
 export type BuildUpdate = Updateable<BuildsTable>;
 export type WorkshopRow = Selectable<WorkshopsTable>;
 export type InvitationRow = Selectable<InvitationsTable>;
+export type ConfigRevisionRow = Selectable<ConfigRevisionsTable>;
+export type NewConfigRevision = Insertable<ConfigRevisionsTable>;

@@ -20,7 +20,7 @@ function upload(parts: { version?: string; file?: [string, string | Uint8Array<A
 
 describe("readConfigUpload", () => {
   it("reads the file's JSON and the version", async () => {
-    expect(await readConfigUpload(upload({ version: "3", file: ["k.json", '{"format":"hiltbench.config/1"}'] }))).toEqual({ input: { format: "hiltbench.config/1" }, version: 3, fileName: "k.json" });
+    expect(await readConfigUpload(upload({ version: "3", file: ["k.json", '{"format":"hiltbench.config/1"}'] }))).toEqual({ input: { format: "hiltbench.config/1" }, version: 3, fileName: "k.json", message: null });
   });
   it("takes the config out of an API answer", async () => {
     expect((await readConfigUpload(upload({ version: "1", file: ["a.json", '{"config":{"rig":1},"version":7}'] }))).input).toEqual({ rig: 1 });

@@ -47,7 +47,9 @@ export type EditorAction =
   | { type: "redo" }
   | { type: "notice/dismiss" }
   | { type: "saved"; config: Config }
-  | { type: "reset"; config: Config };
+  | { type: "reset"; config: Config }
+  /** Someone saved meanwhile: `base` is what is stored now, `config` my edits put on top of it (undoable). */
+  | { type: "rebase"; base: Config; config: Config };
 
 export function initEditor(config: Config): EditorState {
   return { config, past: [], future: [], saved: config, selectedPresetId: config.presets[0]?.id ?? null, lastKey: null, notice: null };
@@ -252,5 +254,7 @@ function step(s: EditorState, a: EditorAction): EditorState {
       return { ...s, saved: a.config, lastKey: null };
     case "reset":
       return { ...initEditor(a.config), selectedPresetId: s.selectedPresetId };
+    case "rebase":
+      return { ...s, saved: a.base, config: a.config, past: [...s.past, c].slice(-HISTORY_LIMIT), future: [], lastKey: null, notice: null };
   }
 }

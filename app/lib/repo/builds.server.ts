@@ -73,21 +73,43 @@ export async function getBuild(db: Db, scope: Scope, id: string) {
 
 export type BuildMeta = { name: string; clientName: string; clientUserId: string | null; hiltNotes: string; status: BuildStatus };
 
-export async function createBuild(db: Db, workshopId: string, meta: BuildMeta, config: Config) {
-  return db
-    .insertInto("builds")
-    .values({
-      workshop_id: workshopId,
-      name: meta.name,
-      client_name: meta.clientName,
-      client_user_id: meta.clientUserId,
-      hilt_notes: meta.hiltNotes,
-      status: meta.status,
-      config: JSON.stringify(config),
-      config_saved_at: new Date(),
-    })
-    .returning(["id"])
-    .executeTakeFirstOrThrow();
+/** A new build and its revision 1, in one transaction (a build always has its current config as a revision). */
+export async function createBuild(db: Db, workshopId: string, meta: BuildMeta, config: Config, note: { authorId: string | null; counts: { errors: number; warnings: number } }) {
+  const { authorId, counts } = note;
+  const run = async (tx: Db) => {
+    const b = await tx
+      .insertInto("builds")
+      .values({
+        workshop_id: workshopId,
+        name: meta.name,
+        client_name: meta.clientName,
+        client_user_id: meta.clientUserId,
+        hilt_notes: meta.hiltNotes,
+        status: meta.status,
+        config: JSON.stringify(config),
+        config_saved_at: new Date(),
+      })
+      .returning(["id", "config_version", "config_saved_at"])
+      .executeTakeFirstOrThrow();
+    await tx
+      .insertInto("config_revisions")
+      .values({
+        build_id: b.id,
+        workshop_id: workshopId,
+        number: b.config_version,
+        config: JSON.stringify(config),
+        author_id: authorId,
+        created_at: b.config_saved_at,
+        message: null,
+        template_id: null,
+        template_version: null,
+        error_count: counts.errors,
+        warning_count: counts.warnings,
+      })
+      .execute();
+    return { id: b.id };
+  };
+  return db.isTransaction ? run(db) : db.transaction().execute(run);
 }
 
 export async function updateBuildMeta(db: Db, workshopId: string, id: string, meta: BuildMeta) {
@@ -106,26 +128,44 @@ export async function updateBuildMeta(db: Db, workshopId: string, id: string, me
     .execute();
 }
 
+/** What a save records about itself beside the config (the revision's metadata). */
+export type RevisionNote = {
+  /** The viewer who saved; null only for saves made by the system (seed, migration). */
+  authorId: string | null;
+  /** "What changed", optional; trimmed, empty is none. */
+  message?: string | null;
+  /** The validator's counts for this config (repo/ does not run the validator: callers do). */
+  counts: { errors: number; warnings: number };
+};
+
 /**
- * Replace the config only if nobody saved since `expectedVersion` was read; a stale save
- * changes nothing and answers false.
+ * Replace the config only if nobody saved since `expectedVersion` was read, and append the
+ * revision (number = the new config_version, created_at = the new config_saved_at) in the same
+ * statement: both happen or neither. A stale save changes nothing and answers null.
  */
-export async function saveConfig(db: Db, workshopId: string, id: string, config: Config, expectedVersion: number) {
+export async function saveConfig(db: Db, workshopId: string, id: string, config: Config, expectedVersion: number, note: RevisionNote) {
   // No stored version is outside int4; such a number would be a database error, not a stale save.
   if (!isInt4(expectedVersion)) return null;
   const now = new Date();
-  const r = await db
-    .updateTable("builds")
-    // config_saved_at moves only here (and at creation): renders print it, so a rename or a
-    // status change leaves a rendered header byte-for-byte the same.
-    .set((eb) => ({ config: JSON.stringify(config), config_version: eb("config_version", "+", 1), config_saved_at: now, updated_at: now }))
-    .where("workshop_id", "=", workshopId)
-    .where("id", "=", id)
-    .where("config_version", "=", expectedVersion)
-    .returning(["config_version"])
-    .executeTakeFirst();
-  return r?.config_version ?? null;
+  const counts = note.counts;
+  const message = note.message?.trim() || null;
+  const json = JSON.stringify(config);
+  // config_saved_at moves only here (and at creation): renders print it, so a rename or a status
+  // change leaves a rendered header byte-for-byte the same. The revision copies it.
+  const r = await sql<{ number: number }>`
+    WITH saved AS (
+      UPDATE builds SET config = ${json}::jsonb, config_version = config_version + 1, config_saved_at = ${now}, updated_at = ${now}
+      WHERE workshop_id = ${workshopId} AND id = ${id} AND config_version = ${expectedVersion}
+      RETURNING id, workshop_id, config_version, config, config_saved_at, pinned_template_id, pinned_template_version
+    )
+    INSERT INTO config_revisions (build_id, workshop_id, number, config, author_id, created_at, message, template_id, template_version, error_count, warning_count)
+    SELECT id, workshop_id, config_version, config, ${note.authorId}::uuid, config_saved_at, ${message}::text,
+           pinned_template_id, pinned_template_version, ${counts.errors}::integer, ${counts.warnings}::integer
+    FROM saved
+    RETURNING number`.execute(db);
+  return r.rows[0]?.number ?? null;
 }
+
 
 /** The build's config version now (after a refused stale save, to say how far it moved); null when it is gone. */
 export async function currentConfigVersion(db: Db, workshopId: string, id: string): Promise<number | null> {

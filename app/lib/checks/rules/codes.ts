@@ -49,6 +49,8 @@ export const RULES = {
   "font-promised": { severity: "warning", area: "completeness", summary: "a preset's font has not arrived yet" },
   "font-invalid": { severity: "error", area: "completeness", summary: "a preset's font failed its checks" },
   "font-missing-cue": { severity: "warning", area: "completeness", summary: "a font lacks sounds its preset's looks use" },
+  "font-missing-control-cue": { severity: "warning", area: "completeness", summary: "a font lacks sounds for events its controls fire" },
+  "wipe-off-font-sound": { severity: "warning", area: "timing", summary: "a wipe much shorter or longer than the font's ignite or retract sound" },
   "font-unused": { severity: "info", area: "completeness", summary: "a font no preset uses" },
   "blade-without-ignition-wipe": { severity: "warning", area: "completeness", summary: "a main-blade look has no ignition wipe" },
   "blade-without-retraction-wipe": { severity: "warning", area: "completeness", summary: "a main-blade look has no retraction wipe" },

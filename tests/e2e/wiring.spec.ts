@@ -1,0 +1,49 @@
+import { test, expect, buildIdByName, tokenFor, BASE_URL } from "./fixtures";
+
+test("the Rig tab draws the wiring picture, redraws it as the form changes and shows a pin conflict with its code", async ({ page, signIn, sql }) => {
+  await signIn("demo-builder");
+  const id = await buildIdByName(sql, "Kestrel");
+  await page.goto(`/builds/${id}/rig`);
+  test.setTimeout(120_000);
+  // Drawing starts when the picture comes into view; ELK's first layout in a fresh worker is slow on a busy machine.
+  await page.getByRole("heading", { name: "Wiring picture" }).scrollIntoViewIfNeeded();
+  const picture = page.getByTestId("wiring-svg");
+  await expect(picture.locator("svg title")).toHaveText("Wiring of Kestrel", { timeout: 60_000 });
+  await page.getByText("Connections in words").click();
+  const words = page.getByTestId("wiring-connections");
+  await expect(words).toContainText("Cell positive to the switch: 22 AWG");
+  await expect(words).toContainText("Board pin 2 to Main blade · strip 1/2 data in.");
+  await expect(picture).not.toContainText("shared-data-pin");
+
+  // Put the chamber strip on the blade's pin: the picture redraws before anything is saved.
+  const chamberPin = page.locator('input[name="channels.1.pin"]');
+  await chamberPin.fill("2");
+  await expect(picture).toContainText("shared-data-pin", { timeout: 30_000 });
+  await expect(words).toContainText("problem: shared-data-pin");
+  await expect(picture.locator('polyline[stroke="#b3261e"]').first()).toBeAttached();
+
+  // A field that does not parse keeps the last good picture and says so.
+  await page.locator('input[name="channels.0.pixels"]').fill("");
+  await expect(page.getByText("fix the fields marked above to redraw it")).toBeVisible();
+  await page.locator('input[name="channels.0.pixels"]').fill("132");
+  await expect(page.getByText("fix the fields marked above to redraw it")).toBeHidden({ timeout: 30_000 });
+
+  // Nothing was saved: the stored picture has no conflict.
+  const stored = await page.request.get(`/api/builds/${id}/wiring.svg`);
+  expect(stored.status()).toBe(200);
+  expect(await stored.text()).not.toContain("shared-data-pin");
+});
+
+test("a script fetches the wiring picture with a token; the same rig gives the same bytes", async ({ request, sql }) => {
+  const token = await tokenFor(sql, "demo-builder");
+  const id = await buildIdByName(sql, "Kestrel");
+  const url = `${BASE_URL}/api/builds/${id}/wiring.svg`;
+  const a = await request.get(url, { headers: { Authorization: `Bearer ${token}` } });
+  expect(a.status()).toBe(200);
+  expect(a.headers()["content-type"]).toContain("image/svg+xml");
+  const b = await request.get(url, { headers: { Authorization: `Bearer ${token}` } });
+  expect(await a.text()).toBe(await b.text());
+  expect(await a.text()).toMatch(/^<svg xmlns="http:\/\/www.w3.org\/2000\/svg"/);
+  const anonymous = await request.get(url, { headers: { Cookie: "" } });
+  expect(anonymous.status()).toBe(401);
+});
