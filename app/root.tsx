@@ -3,6 +3,10 @@ import { ErrorPage } from "~/components/ErrorPage";
 import type { Route } from "./+types/root";
 import { useEffect } from "react";
 import "./app.css";
+import { requestGuard } from "./lib/web/guard.server";
+
+/** Every request: cross-site refusal and text PostgreSQL cannot store (decision 011). */
+export const middleware: Route.MiddlewareFunction[] = [requestGuard];
 
 export function Layout({ children }: { children: React.ReactNode }) {
   // Marks the document once React has taken over, so browser tests act on a live page rather

@@ -6,6 +6,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
 import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { INT4_MAX, isInt4 } from "~/lib/input/edges";
 import { getRevisionFor } from "~/lib/revisions/compare.server";
 import { readMessage } from "~/lib/forms/revision-message";
 import type { Route } from "./+types/api.builds.$buildId.config";
@@ -26,8 +27,7 @@ export function action({ request, params }: Route.ActionArgs) {
     const body = await readJsonBody(request);
     const config = requireField(body, "config");
     const version = requireField(body, "version");
-    if (typeof version !== "number" || !Number.isInteger(version) || version < 0)
-      fail(400, '"version" must be the whole number config version the config was read at (GET answers it).');
+    if (!isInt4(version)) fail(400, `"version" must be the whole number config version the config was read at (GET answers it), from 0 to ${INT4_MAX}.`);
     const note = readMessage(body && typeof body === "object" ? (body as { message?: unknown }).message : undefined);
     if (!note.ok) fail(400, note.error);
     const r = await storeCheckedConfig(v, b.id, config, version, { message: note.message });

@@ -9,6 +9,7 @@ import { can } from "~/lib/auth/permissions";
 import { renderRevision, revisionOf, templateForRevision } from "~/lib/revisions/compare.server";
 import { readRevisionNumber } from "~/lib/revisions/params";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
+import { INT4_MAX, int4From } from "~/lib/input/edges";
 import type { Route } from "./+types/api.builds.$buildId.render";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -17,8 +18,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const b = await loadBuildFor(v, params.buildId);
     const url = new URL(request.url);
     const versionText = url.searchParams.get("version");
-    const version = versionText === null ? undefined : Number(versionText);
-    if (version !== undefined && (!Number.isInteger(version) || version < 1)) fail(400, "'version' must be a whole number from 1.");
+    const version = versionText === null ? undefined : (int4From(versionText, 1) ?? fail(400, `'version' must be a whole number from 1 to ${INT4_MAX}.`));
     const revisionText = url.searchParams.get("revision");
     if (revisionText !== null) {
       // One saved revision, printing its own number and save time: always the same bytes.
@@ -33,7 +33,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     }
     const t = await chooseTemplateForBuild(v, b, url.searchParams.get("template"), version);
     const r = await renderBuildOrSource(v, { build: b }, t);
-    if (r.kind === "failed") return json({ errors: r.errors }, { status: 422 });
+    if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
     const headers = new Headers({ "X-Template": `${t.name}@${t.version}` });
     if (url.searchParams.get("download")) headers.set("Content-Disposition", `attachment; filename="${downloadName(b.name, t.name, r.target)}"`);
     return text(r.output, { headers });

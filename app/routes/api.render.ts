@@ -6,6 +6,7 @@ import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { chooseTemplate, renderBuildOrSource } from "~/lib/rendering/service.server";
 import { readJsonBody } from "~/lib/web/body.server";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
+import { INT4_MAX } from "~/lib/input/edges";
 import type { Route } from "./+types/api.render";
 
 /** Templates are tens of kilobytes and configs a few hundred; a render request stays under 1 MB. */
@@ -16,7 +17,7 @@ const Body = z.union([
   z.object({ buildId: z.string(), config: z.undefined().optional(), template: z.unknown() }),
 ]);
 const TemplateRef = z.union([
-  z.object({ id: z.string().min(1), version: z.number().int().min(1).optional() }).strict(),
+  z.object({ id: z.string().min(1), version: z.number().int().min(1).max(INT4_MAX).optional() }).strict(),
   z.object({ source: z.string() }).strict(),
   z.object({ builtin: z.string() }).strict(),
 ]);
@@ -47,8 +48,8 @@ export function action({ request }: Route.ActionArgs) {
     const build = body.data.buildId !== undefined ? await loadBuildFor(v, body.data.buildId) : null;
     const t = await chooseTemplate(v, ref.data, build ?? undefined);
     const r = await renderBuildOrSource(v, build ? { build } : { config: body.data.config }, t);
-    if (r.kind === "bad-config") return json({ error: r.message, errors: r.errors }, { status: 422 });
-    if (r.kind === "failed") return json({ errors: r.errors }, { status: 422 });
+    if (r.kind === "bad-config") return json({ error: r.message, errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
+    if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
     return text(r.output, { headers: { "X-Template": `${t.name}@${t.version}` } });
   });
 }

@@ -16,6 +16,8 @@ import { applyHeader } from "~/lib/readback/apply.server";
 import { openRenderView, pinForBuild } from "~/lib/rendering/library.server";
 import { readFormLimited } from "~/lib/web/body.server";
 import { fail } from "~/lib/web/http.server";
+import { int4From } from "~/lib/input/edges";
+import { cappedNote } from "~/lib/template/error-list";
 import type { Route } from "./+types/builds.$buildId.render";
 
 export const meta: Route.MetaFunction = ({ matches }) => {
@@ -50,13 +52,13 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data<ReadAnswer>({ intent: "read", errors: c.errors, diagnostics: c.diagnostics, summary: c.summary }, { status: c.config ? 200 : 422 });
   }
   if (intent === "pin") {
-    await pinForBuild(v, b.id, form.get("template"), Number(form.get("version")));
+    await pinForBuild(v, b.id, form.get("template"), int4From(form.get("version"), 1));
     return data({ intent: "pin" as const, ok: true });
   }
   const text = form.get("header");
-  const expected = Number(form.get("configVersion"));
+  const expected = int4From(form.get("configVersion"));
   if (typeof text !== "string" || text.trim() === "") fail(400, "The form has no header text.");
-  if (!Number.isInteger(expected) || expected < 0) fail(400, "The form must carry the config version the page was read at.");
+  if (expected === null) fail(400, "The form must carry the config version the page was read at.");
   const note = readMessage(form.get("message"));
   if (!note.ok) fail(400, note.error);
   const r = await applyHeader(v, b.id, text, expected, note.message);
@@ -178,6 +180,7 @@ export default function RenderPage({ loaderData }: Route.ComponentProps) {
                 </li>
               ))}
             </ul>
+            {cappedNote(result) ? <p className="mt-2 text-sm text-iron-300" data-testid="errors-capped">{cappedNote(result)}</p> : null}
           </div>
         )}
       </section>

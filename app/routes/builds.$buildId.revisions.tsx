@@ -8,6 +8,7 @@ import { can } from "~/lib/auth/permissions";
 import { listRevisionsFor, restoreRevisionFor, revisionAuthorsFor } from "~/lib/revisions/compare.server";
 import { readListQuery, readRevisionNumber } from "~/lib/revisions/params";
 import { fail } from "~/lib/web/http.server";
+import { int4From } from "~/lib/input/edges";
 import type { Route } from "./+types/builds.$buildId.revisions";
 
 export const meta: Route.MetaFunction = ({ matches }) => {
@@ -39,8 +40,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (form.get("intent") !== "restore") fail(400, "Unknown action: use intent 'restore'.");
   const n = readRevisionNumber(form.get("n") as string | null, "n");
   if (!n.ok) return data({ ok: false, message: n.error }, { status: 400 });
-  const expected = Number(form.get("version"));
-  if (!Number.isInteger(expected) || expected < 1) return data({ ok: false, message: "The form must carry the config version the page was read at; reload and try again." }, { status: 400 });
+  const expected = int4From(form.get("version"), 1);
+  if (expected === null) return data({ ok: false, message: "The form must carry the config version the page was read at; reload and try again." }, { status: 400 });
   const r = await restoreRevisionFor(v, b.id, n.value, expected);
   if (r.kind === "missing") return data({ ok: false, message: `This build has no revision ${n.value}.` }, { status: 404 });
   if (r.kind === "stale") return data({ ok: false, message: "Someone saved this build since you opened the page; nothing was restored. Reload to see their revision." }, { status: 409 });

@@ -10,6 +10,7 @@ import { CHANNEL_ROLES, COLOR_ORDERS, rigSchema, type Rig } from "~/lib/config/s
 import { can } from "~/lib/auth/permissions";
 import { saveRig } from "~/lib/builds/builds.server";
 import { rigFromForm } from "~/lib/forms/rig-form";
+import { int4From } from "~/lib/input/edges";
 import { WiringPicture } from "~/components/rig/WiringPicture";
 import type { Route } from "./+types/builds.$buildId.rig";
 
@@ -31,7 +32,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!parsed.success) return data({ ok: false as const, errors: fieldErrors(parsed.error), message: "Some fields need fixing; nothing was saved." }, { status: 400 });
   const note = readMessage(form.get("message"));
   if (!note.ok) return data({ ok: false as const, errors: { message: note.error } as Record<string, string>, message: note.error }, { status: 400 });
-  const expected = Number(form.get("version"));
+  const expected = int4From(form.get("version"));
+  if (expected === null) return data({ ok: false as const, errors: {}, message: "The form must carry the config version the page was read at; reload the page. Nothing was saved." }, { status: 400 });
   const saved = await saveRig(v, b, parsed.data, expected, note.message);
   if (saved.kind === "invalid") return data({ ok: false as const, errors: saved.fieldErrors, message: saved.message }, { status: 422 });
   if (saved.kind === "stale")

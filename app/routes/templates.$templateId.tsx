@@ -19,6 +19,8 @@ import type { TemplateError } from "~/lib/template";
 import { readFormLimited } from "~/lib/web/body.server";
 import { errorTitle } from "~/lib/web/errors";
 import { fail } from "~/lib/web/http.server";
+import { int4From } from "~/lib/input/edges";
+import { capErrors, cappedNote, type ErrorKind } from "~/lib/template/error-list";
 import type { Route } from "./+types/templates.$templateId";
 
 export const meta: Route.MetaFunction = ({ data, error }) => [{ title: error ? errorTitle(error) : `${data?.template.name ?? "Template"} · Templates · Hiltbench` }];
@@ -42,7 +44,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return openTemplatePage(v, params.templateId, { version: url.searchParams.get("version"), compare: url.searchParams.get("compare"), build: url.searchParams.get("build") });
 }
 
-type SaveAnswer = { ok: true; version: number } | { ok: false; message: string; errors?: TemplateError[] };
+type SaveAnswer = { ok: true; version: number } | { ok: false; message: string; errors?: TemplateError[]; total?: number; kinds?: ErrorKind[] };
 
 export async function action({ request, params }: Route.ActionArgs) {
   const v = await requireViewer(request, "edit:template");
@@ -56,11 +58,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
   if (intent !== "save") fail(400, "Unknown action: use intent 'save' or 'delete'.");
   const source = form.get("source");
-  const latest = Number(form.get("latest"));
+  const latest = int4From(form.get("latest"), 1);
   if (typeof source !== "string") return data<SaveAnswer>({ ok: false, message: "The form has no template source." }, { status: 400 });
-  if (!Number.isInteger(latest) || latest < 1) return data<SaveAnswer>({ ok: false, message: "The form must say which version the editor was opened at." }, { status: 400 });
+  if (latest === null) return data<SaveAnswer>({ ok: false, message: "The form must say which version the editor was opened at." }, { status: 400 });
   const r = await saveTemplateSource(v, t, source, latest);
-  if (!r.ok) return data<SaveAnswer>({ ok: false, message: r.message, ...(r.errors ? { errors: r.errors } : {}) }, { status: r.status });
+  if (!r.ok) return data<SaveAnswer>({ ok: false, message: r.message, ...(r.errors ? { errors: r.errors, total: r.total, kinds: r.kinds } : {}) }, { status: r.status });
   return data<SaveAnswer>(r);
 }
 
@@ -121,7 +123,9 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
   const meta = useMemo(() => (build ? metaForBuild(build, { name: template.name, version: template.latest }) : null), [build, template.name, template.latest]);
   const draft = useDraftPreview(inBrowser, settled, build ? build.config : null, meta, partials);
   const outcome = draft?.render ?? null;
-  const problems = draft?.problems ?? [];
+  // Capped like every error list (decision 011): thousands of problems would stall the page.
+  const problemList = useMemo(() => capErrors(draft?.problems ?? []), [draft]);
+  const problems = problemList.errors;
   const diagnostics = useMemo(() => toCm(problems), [draft]); // eslint-disable-line react-hooks/exhaustive-deps
   const save = useFetcher<SaveAnswer>();
   const submit = useSubmit();
@@ -222,6 +226,11 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
               </li>
             ))}
           </ul>
+          {answer.total !== undefined && cappedNote({ errors: answer.errors, total: answer.total, kinds: answer.kinds ?? [] }) ? (
+            <p className="mt-2 text-iron-300" data-testid="save-errors-capped">
+              {cappedNote({ errors: answer.errors, total: answer.total, kinds: answer.kinds ?? [] })}
+            </p>
+          ) : null}
         </section>
       ) : null}
 
@@ -263,6 +272,11 @@ export default function TemplateEditorPage({ loaderData }: Route.ComponentProps)
                     <CodeFrame source={settled} error={p} />
                   </li>
                 ))}
+                {cappedNote(problemList) ? (
+                  <li className="text-iron-300" data-testid="problems-capped">
+                    {cappedNote(problemList)}
+                  </li>
+                ) : null}
               </ul>
             )}
           </div>

@@ -2,6 +2,7 @@
 // inferred from them. The JSON form ("hiltbench.config/1") is the public exchange format, so
 // field names here are part of a contract: add fields, never rename them.
 import { z } from "zod";
+import { badTextReason } from "../input/edges";
 
 export const CONFIG_FORMAT = "hiltbench.config/1" as const;
 
@@ -9,6 +10,16 @@ export const CONFIG_FORMAT = "hiltbench.config/1" as const;
 export const idSchema = z
   .string()
   .regex(/^[a-z0-9][a-z0-9-]{0,47}$/, "use 1–48 lowercase letters, digits or dashes, starting with a letter or digit");
+
+/**
+ * Free text in the model: no NUL character and no lone UTF-16 surrogate, which PostgreSQL cannot
+ * store (decision 011). The validator reports the field's path like any other schema issue.
+ */
+export const textSchema = () =>
+  z.string().check((ctx) => {
+    const reason = badTextReason(ctx.value);
+    if (reason) ctx.issues.push({ code: "custom", input: ctx.value, message: `${reason.replace(/, which.*$/, "")}; remove it`, continue: false });
+  });
 
 export const colorSchema = z.string().regex(/^#[0-9a-fA-F]{6}$/, "a colour is written #rrggbb, e.g. #ff8800");
 
@@ -35,7 +46,7 @@ export type Cue = z.infer<typeof cueSchema>;
 // ---------------------------------------------------------------- rig
 
 export const boardSchema = z.strictObject({
-  profile: z.string().min(1).max(80),
+  profile: textSchema().min(1).max(80),
   /** GPIO numbers that can drive an LED data line. */
   dataPins: z.array(z.number().int().min(0).max(255)).min(1).max(64),
   /** GPIO numbers that can read a button. */
@@ -47,7 +58,7 @@ export const boardSchema = z.strictObject({
 
 export const channelSchema = z.strictObject({
   id: idSchema,
-  name: z.string().min(1).max(60),
+  name: textSchema().min(1).max(60),
   role: z.enum(CHANNEL_ROLES),
   /** Pixels on one strip. */
   pixels: z.number().int().min(1).max(2048),
@@ -59,7 +70,7 @@ export const channelSchema = z.strictObject({
 
 export const buttonSchema = z.strictObject({
   id: idSchema,
-  name: z.string().min(1).max(60),
+  name: textSchema().min(1).max(60),
   kind: z.enum(["activation", "auxiliary"]),
   pin: z.number().int().min(0).max(255),
 });
@@ -98,9 +109,9 @@ export const rigSchema = z.strictObject({
 
 export const fontSchema = z.strictObject({
   id: idSchema,
-  name: z.string().min(1).max(60),
+  name: textSchema().min(1).max(60),
   /** Folder name on the SD card. */
-  folder: z.string().min(1).max(64),
+  folder: textSchema().min(1).max(64),
   status: z.enum(["promised", "received", "invalid"]),
   /** Cues the received files provide (empty while promised). */
   cues: z.array(cueSchema).max(CUES.length),
@@ -221,7 +232,7 @@ export const lookSchema = z.strictObject({
 
 export const presetSchema = z.strictObject({
   id: idSchema,
-  name: z.string().min(1).max(60),
+  name: textSchema().min(1).max(60),
   fontId: idSchema,
   /** One look per channel, keyed by channel id. */
   looks: z.record(idSchema, lookSchema),

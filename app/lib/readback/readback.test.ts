@@ -126,9 +126,10 @@ describe.each(FORMS)("readHeader, generic-header v$version", ({ entry, header })
 // ---------------------------------------------------------------- random valid configs
 
 const id = fc.stringMatching(/^[a-z0-9][a-z0-9-]{0,8}$/);
+// NUL is not model text any more: the schema refuses it, since PostgreSQL cannot store it (decision 011).
 const text = fc.oneof(
-  fc.string({ unit: "grapheme", minLength: 1, maxLength: 12 }),
-  fc.string({ unit: fc.constantFrom('"', "\\", "?", "\n", "*", "/", "a", " ", "\t", "\u0000", "é", "🔥"), minLength: 1, maxLength: 20 }),
+  fc.string({ unit: "grapheme", minLength: 1, maxLength: 12 }).filter((s) => !s.includes("\u0000")),
+  fc.string({ unit: fc.constantFrom('"', "\\", "?", "\n", "*", "/", "a", " ", "\t", "\u0001", "é", "🔥"), minLength: 1, maxLength: 20 }),
 );
 const color = fc.stringMatching(/^#[0-9a-fA-F]{6}$/);
 const num = (min: number, max: number) => fc.double({ min, max, noNaN: true });

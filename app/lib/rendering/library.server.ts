@@ -25,10 +25,12 @@ import {
   usesOf,
   type TemplateDependents,
 } from "../repo/templates.server";
-import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, compileTemplate, DEFAULT_BUILTIN, isBuiltinName, type TemplateError } from "../template";
+import { BUILTIN_NAMES, BUILTIN_TEMPLATES, BUILTIN_VERSION, DEFAULT_BUILTIN, isBuiltinName, type TemplateError } from "../template";
 import { fail } from "../web/http.server";
-import { partialsFrom } from "./render";
+import { checkOffThread } from "./pool.server";
+import { type ErrorKind } from "../template/error-list";
 import { chooseTemplateForBuild, pinnedTemplate, renderBuildOrSource, type RenderableBuild, type ResolvedTemplate } from "./service.server";
+import { INT4_MAX, int4From } from "../input/edges";
 import { diffVersions, newerPartials, parseCompare, type NewerPartial, type VersionDiff } from "./version-diff";
 
 export type OpenedTemplate = { id: string; name: string; kind: "builtin" | "workshop"; version: number; latest: number; source: string };
@@ -39,8 +41,7 @@ export async function openTemplate(v: Viewer, ref: string, asked: string | null)
   if (isBuiltinName(ref)) return { template: { id: ref, name: ref, kind: "builtin", version: BUILTIN_VERSION, latest: BUILTIN_VERSION, source: BUILTIN_TEMPLATES[ref] }, versions: [] };
   const t = await getTemplate(db(), v.workshop.id, ref);
   if (!t) fail(404, "No template with this id in your workshop.");
-  const version = asked === null ? undefined : Number(asked);
-  if (version !== undefined && (!Number.isInteger(version) || version < 1)) fail(400, "'version' must be a whole number from 1.");
+  const version = asked === null ? undefined : (int4From(asked, 1) ?? fail(400, `'version' must be a whole number from 1 to ${INT4_MAX}.`));
   const row = await getTemplateVersion(db(), v.workshop.id, t.id, version);
   if (!row) fail(404, `This template has no version ${version}.`);
   const all = await listVersions(db(), v.workshop.id, t.id);
@@ -120,20 +121,22 @@ export function workshopSources(v: Viewer): Promise<Record<string, string>> {
 
 export type SaveOutcome =
   | { ok: true; version: number }
-  | { ok: false; status: 409 | 422; message: string; errors?: TemplateError[] };
+  | { ok: false; status: 409 | 422; message: string; errors?: TemplateError[]; total?: number; kinds?: ErrorKind[] };
 
 /**
  * The save rule: a new version is stored only when the source compiles with the workshop's
- * templates as they will be, and only over the version the editor was opened at.
+ * templates as they will be, and only over the version the editor was opened at. The source is
+ * compiled in a render worker (checkOffThread), never on the event loop, and its error list
+ * comes back capped (decision 011).
  */
 export async function saveTemplateSource(v: Viewer, t: { id: string; name: string }, source: string, openedAt: number): Promise<SaveOutcome> {
   // This template's own name means the source being saved: it is about to be the latest, and a
   // cycle through another template (this → other → this) only shows when it is.
   const partials = { ...(await latestSources(db(), v.workshop.id)), [t.name]: source };
-  const compiled = compileTemplate(source, { partials: partialsFrom(partials) });
-  if (!compiled.ok) {
-    const errors = compiled.errors.filter((e) => e.severity === "error");
-    return { ok: false, status: 422, message: `The template has ${errors.length} error${errors.length === 1 ? "" : "s"}; nothing was saved.`, errors };
+  const checked = await checkOffThread(source, partials);
+  if (!checked.ok) {
+    const { errors, total, kinds } = checked.errors;
+    return { ok: false, status: 422, message: `The template has ${total} error${total === 1 ? "" : "s"}; nothing was saved.`, errors, total, kinds };
   }
   const r = await saveTemplateVersion(db(), v.workshop.id, t.id, v.user.id, source, openedAt);
   if (r.kind === "missing") fail(404, "No template with this id in your workshop.");
@@ -207,7 +210,7 @@ export async function openRenderView(v: Viewer, b: RenderableBuild & { id: strin
     template: { id: t.id, name: t.name, version: t.version, kind: t.kind, ref: t.id ?? t.name, uses: Object.entries(r.uses).map(([name, u]) => ({ name, version: u.version })), pinnable: isPinnable(t) },
     pinned: { id: pinned.id, name: pinned.name, version: pinned.version, latest: pinnedLatest },
     choices,
-    result: r.kind === "rendered" ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: r.errors, source: t.source },
+    result: r.kind === "rendered" ? { ok: true as const, output: r.output, target: r.target } : { ok: false as const, errors: r.errors, total: r.total, kinds: r.kinds, source: t.source },
   };
 }
 
@@ -220,14 +223,14 @@ export function isPinnable(t: { kind: string; name: string }): boolean {
  * The pin policy: a build renders with a workshop template at a version it names, or with the
  * default built-in (pinning it clears the pin); the other built-ins are for reading only.
  */
-export async function pinForBuild(v: Viewer, buildId: string, ref: unknown, version: number): Promise<void> {
+export async function pinForBuild(v: Viewer, buildId: string, ref: unknown, version: number | null): Promise<void> {
   if (typeof ref !== "string" || ref === "") fail(400, "Choose the template to pin.");
   if (isBuiltinName(ref)) {
     if (ref !== DEFAULT_BUILTIN) fail(400, "Only the generic header (or a workshop template) can be a build's template; the other built-ins are for reading.");
     await pinTemplate(db(), v.workshop.id, buildId, null);
     return;
   }
-  if (!Number.isInteger(version) || version < 1) fail(400, "Say which version of the template to pin.");
+  if (version === null) fail(400, "Say which version of the template to pin (a whole number from 1).");
   const t = await getTemplateVersion(db(), v.workshop.id, ref, version);
   if (!t) fail(404, "No such template version in your workshop.");
   try {

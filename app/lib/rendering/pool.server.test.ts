@@ -9,7 +9,8 @@ import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { demoConfig } from "../config/demo";
 import { BUILTIN_TEMPLATES } from "../template";
-import { PoolBusyError, poolSizeFrom, renderOn, TemplatePool } from "./pool.server";
+import { checkOn, PoolBusyError, poolSizeFrom, renderOn, TemplatePool } from "./pool.server";
+import { checkTemplateSource } from "./check";
 import { compileAndRender } from "./render";
 
 const here = path.dirname(fileURLToPath(import.meta.url));
@@ -153,6 +154,29 @@ describe("the template render pool", () => {
     await running;
     // No built worker (vite dev, vitest): the same outcome on this thread.
     expect(await renderOn(null, BUILTIN_TEMPLATES["generic-header"], config, meta)).toEqual(compileAndRender(BUILTIN_TEMPLATES["generic-header"], config, meta));
+  });
+
+  it("checks a save's source in a worker with capped error lists, the same as on this thread", async () => {
+    const p = pool();
+    // Thousands of errors of three kinds: only the first 50 cross back, with the total and the kinds.
+    const hostile = "@( config.nope )@ @( x |> nofilter )@ @[ use \"missing\" ]@\n".repeat(400);
+    const off = await checkOn(p, hostile, {});
+    expect(off).toEqual(checkTemplateSource(hostile, {}));
+    expect(off.ok).toBe(false);
+    if (off.ok) return;
+    expect(off.errors.errors).toHaveLength(50);
+    expect(off.errors.total).toBeGreaterThan(1000);
+    expect(off.errors.kinds.length).toBeLessThanOrEqual(4);
+    expect(off.errors.kinds.reduce((n, k) => n + k.count, 0)).toBe(off.errors.total);
+    expect(await checkOn(p, BUILTIN_TEMPLATES["generic-header"], {})).toMatchObject({ ok: true });
+  });
+
+  it("stops a check that runs past its limit with a check error, and keeps serving", async () => {
+    const p = pool({ workerFile: stuckFile, killMarginMs: 50 });
+    const r = await checkOn(p, "x", {}, { maxMillis: 100 });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.errors.errors[0]).toMatchObject({ stage: "check", message: "checking took longer than the time limit of 100 ms" });
+    expect(p.kills).toBe(1);
   });
 
   it("takes its size from HB_TEMPLATE_WORKERS, by default min(2, cores)", () => {

@@ -11,8 +11,9 @@ import { Worker } from "node:worker_threads";
 import { data } from "react-router";
 import type { Config } from "../config/schema";
 import { DEFAULT_LIMITS, type Limits, type RenderMeta } from "../template";
+import { checkTemplateSource, stoppedCheck, type CheckOutcome } from "./check";
 import { compileAndRender, stoppedRender, type RenderOutcome } from "./render";
-import type { RenderRequest, WorkerMessage } from "./worker.server";
+import type { WorkerMessage, WorkerRequest } from "./worker.server";
 
 /** The worker's file name in the server build, next to build/server/index.js (vite.config.ts). */
 export const WORKER_FILE_NAME = "template-worker.js";
@@ -24,6 +25,11 @@ export const QUEUE_LIMIT = 32;
 const WORKER_HEAP_MB = 256;
 /** Extra time a worker that has not finished loading gets before its first job counts as overdue. */
 const STARTUP_ALLOWANCE_MS = 5000;
+/**
+ * A save's check gets this long in a worker. A 260 KB hostile template compiles in about 1.5 s
+ * on this 2-core machine; a worker still silent past this plus KILL_MARGIN_MS is terminated.
+ */
+export const CHECK_MILLIS = 5000;
 
 /** HB_TEMPLATE_WORKERS (1–16), by default min(2, available parallelism). */
 export function poolSizeFrom(value: string | undefined, cores = availableParallelism()): number {
@@ -46,11 +52,15 @@ export class PoolBusyError extends Error {
 export type RenderOptions = { partials?: Record<string, string>; limits?: Partial<Limits>; cache?: boolean };
 export type PoolOptions = { workerFile: string; size?: number; queueLimit?: number; killMarginMs?: number; startupAllowanceMs?: number };
 
+type DistributiveOmit<T, K extends keyof T> = T extends unknown ? Omit<T, K> : never;
+type Outcome = RenderOutcome | CheckOutcome;
 type Job = {
-  request: Omit<RenderRequest, "id">;
+  request: DistributiveOmit<WorkerRequest, "id">;
   maxMillis: number;
-  resolve: (o: RenderOutcome) => void;
+  resolve: (o: Outcome) => void;
   reject: (e: Error) => void;
+  /** The outcome for a job stopped from outside (time limit, memory). */
+  stopped: (message: string) => Outcome;
 };
 type Running = Job & { id: number; timer: NodeJS.Timeout | null };
 type Slot = { worker: Worker | null; ready: boolean; job: Running | null };
@@ -83,14 +93,22 @@ export class TemplatePool {
   }
 
   render(source: string, config: Config, meta: RenderMeta, opts: RenderOptions = {}): Promise<RenderOutcome> {
+    return this.submit(
+      { kind: "render", source, config, meta, partials: opts.partials ?? {}, limits: opts.limits, cache: opts.cache },
+      opts.limits?.maxMillis ?? DEFAULT_LIMITS.maxMillis,
+      stoppedRender,
+    ) as Promise<RenderOutcome>;
+  }
+
+  /** A template save's check (compile only, capped error lists) in a worker, like a render. */
+  check(source: string, partials: Record<string, string>, opts: { maxMillis?: number } = {}): Promise<CheckOutcome> {
+    return this.submit({ kind: "check", source, partials }, opts.maxMillis ?? CHECK_MILLIS, stoppedCheck) as Promise<CheckOutcome>;
+  }
+
+  private submit(request: Job["request"], maxMillis: number, stopped: Job["stopped"]): Promise<Outcome> {
     if (this.closed) return Promise.reject(new Error("The template pool is closed."));
-    return new Promise<RenderOutcome>((resolve, reject) => {
-      const job: Job = {
-        request: { source, config, meta, partials: opts.partials ?? {}, limits: opts.limits, cache: opts.cache },
-        maxMillis: opts.limits?.maxMillis ?? DEFAULT_LIMITS.maxMillis,
-        resolve,
-        reject,
-      };
+    return new Promise<Outcome>((resolve, reject) => {
+      const job: Job = { request, maxMillis, resolve, reject, stopped };
       const free = this.slots.find((s) => s.job === null);
       if (free) return this.start(free, job);
       if (this.queue.length >= this.queueLimit) return reject(new PoolBusyError(this.queue.length));
@@ -135,7 +153,7 @@ export class TemplatePool {
     // A cold worker's clock starts when it says it is ready; until then it gets a loading allowance.
     this.startClock(slot, running, slot.ready ? 0 : this.startupAllowanceMs);
     try {
-      slot.worker!.postMessage({ id: running.id, ...job.request } satisfies RenderRequest);
+      slot.worker!.postMessage({ id: running.id, ...job.request } as WorkerRequest);
     } catch (e) {
       // Not cloneable (configs are plain JSON, so this is a bug): answer it, free the slot.
       this.finish(slot);
@@ -182,7 +200,7 @@ export class TemplatePool {
     this.finish(slot);
     this.kills++;
     this.replace(slot);
-    job.resolve(stoppedRender(`rendering took longer than the time limit of ${job.maxMillis} ms`));
+    job.resolve(job.stopped(`${job.request.kind === "check" ? "checking" : "rendering"} took longer than the time limit of ${job.maxMillis} ms`));
     this.next(slot);
   }
 
@@ -195,7 +213,7 @@ export class TemplatePool {
     slot.ready = false;
     void old?.terminate().catch(() => {});
     if (job) {
-      if (e.code === "ERR_WORKER_OUT_OF_MEMORY") job.resolve(stoppedRender(`rendering used more memory than the limit of ${WORKER_HEAP_MB} MB`));
+      if (e.code === "ERR_WORKER_OUT_OF_MEMORY") job.resolve(job.stopped(`${job.request.kind === "check" ? "checking" : "rendering"} used more memory than the limit of ${WORKER_HEAP_MB} MB`));
       else job.reject(e);
     }
     this.next(slot);
@@ -244,6 +262,26 @@ export async function renderOn(pool: TemplatePool | null, source: string, config
   if (!pool) return compileAndRender(source, config, meta, opts);
   try {
     return await pool.render(source, config, meta, opts);
+  } catch (e) {
+    if (e instanceof PoolBusyError) throw data({ message: e.message }, { status: 503, headers: { "Retry-After": "1" } });
+    throw e;
+  }
+}
+
+/**
+ * A template save's check (compile with the workshop's templates, capped error lists) in the
+ * render workers, so a hostile save never holds the event loop (decision 011). Inline where
+ * there is no built worker (dev, vitest); a full queue is a 503 as for renders.
+ */
+export function checkOffThread(source: string, partials: Record<string, string>): Promise<CheckOutcome> {
+  return checkOn(templatePool(), source, partials);
+}
+
+/** checkOffThread on a given pool (null: on this thread); tests pass their own. */
+export async function checkOn(pool: TemplatePool | null, source: string, partials: Record<string, string>, opts: { maxMillis?: number } = {}): Promise<CheckOutcome> {
+  if (!pool) return checkTemplateSource(source, partials);
+  try {
+    return await pool.check(source, partials, opts);
   } catch (e) {
     if (e instanceof PoolBusyError) throw data({ message: e.message }, { status: 503, headers: { "Retry-After": "1" } });
     throw e;

@@ -10,6 +10,7 @@ import type { TemplateUses } from "../db/types";
 import { getTemplateVersion, latestSources, sourcesForVersion } from "../repo/templates.server";
 import { isUuid } from "../repo/builds.server";
 import { BUILTIN_NAMES, BUILTIN_VERSION, builtinSource, DEFAULT_BUILTIN, isBuiltinName, type Limits } from "../template";
+import { capErrors, type ErrorKind } from "../template/error-list";
 import { fail } from "../web/http.server";
 import { renderOffThread } from "./pool.server";
 import { metaForBuild, type RenderOutcome } from "./render";
@@ -90,23 +91,30 @@ export async function partialsFor(v: Viewer, t: ResolvedTemplate): Promise<{ sou
   return { sources: await latestSources(db(), v.workshop.id), uses: Object.create(null) };
 }
 
-/** A render failure as the API's error list, with the limit named when a budget stopped it. */
-export function apiErrors(r: Extract<RenderOutcome, { ok: false }>, limits: Partial<Limits> = {}) {
-  return r.errors.map((e) => ({
+export type ApiError = { stage: string; message: string; line: number; column: number };
+
+/**
+ * A render failure as the API's error list, with the limit named when a budget stopped it:
+ * the first 50 errors, the total and the distinct kinds (decision 011), never thousands.
+ */
+export function apiErrors(r: Extract<RenderOutcome, { ok: false }>, limits: Partial<Limits> = {}): { errors: ApiError[]; total: number; kinds: ErrorKind[] } {
+  const capped = capErrors(r.errors);
+  const errors = capped.errors.map((e) => ({
     stage: e.stage,
     message: e.message === "rendering took longer than the time limit" && limits.maxMillis ? `rendering took longer than the time limit of ${limits.maxMillis} ms` : e.message,
     line: e.line,
     column: e.column,
   }));
+  return { errors, total: capped.total, kinds: capped.kinds };
 }
 
-export type RenderError = ReturnType<typeof apiErrors>[number];
+export type RenderError = ApiError;
 /** A posted config without the model's shape: the same 422 shape as a template error, `path` naming the field. */
 export type ConfigError = { stage: "config"; message: string; line: null; column: null; path: string };
 
 export type Rendered = { kind: "rendered"; output: string; target: "c" | "text"; uses: TemplateUses };
-export type RenderFailed = { kind: "failed"; errors: RenderError[]; uses: TemplateUses };
-export type BadConfig = { kind: "bad-config"; message: string; errors: ConfigError[] };
+export type RenderFailed = { kind: "failed"; errors: RenderError[]; total: number; kinds: ErrorKind[]; uses: TemplateUses };
+export type BadConfig = { kind: "bad-config"; message: string; errors: ConfigError[]; total: number; kinds: ErrorKind[] };
 
 /** Renders a build's config, or a posted config (checked against the model first), through `t`. */
 export async function renderBuildOrSource(v: Viewer, subject: { build: RenderableBuild }, t: ResolvedTemplate, limits?: Partial<Limits>): Promise<Rendered | RenderFailed>;
@@ -125,15 +133,15 @@ export async function renderBuildOrSource(
   } else {
     const checked = validateConfig(subject.config);
     if (!checked.config) {
-      const errors = checked.diagnostics
-        .filter((d) => d.severity === "error")
-        .map((d): ConfigError => ({ stage: "config", message: d.message, line: null, column: null, path: d.path }));
-      return { kind: "bad-config", message: "The config does not have the model's shape; fix it before rendering.", errors };
+      // Capped like every answered error list (decision 011).
+      const capped = capErrors(checked.diagnostics.filter((d) => d.severity === "error"));
+      const errors = capped.errors.map((d): ConfigError => ({ stage: "config", message: d.message, line: null, column: null, path: d.path }));
+      return { kind: "bad-config", message: "The config does not have the model's shape; fix it before rendering.", errors, total: capped.total, kinds: capped.kinds };
     }
     config = checked.config;
     build = { name: "Posted config", client_name: "", config_saved_at: new Date(0) };
   }
   const { sources, uses } = await partialsFor(v, t);
   const r = await renderOffThread(t.source, config as never, metaForBuild(build, t), { partials: sources, limits });
-  return r.ok ? { kind: "rendered", output: r.output, target: r.target, uses } : { kind: "failed", errors: apiErrors(r, limits), uses };
+  return r.ok ? { kind: "rendered", output: r.output, target: r.target, uses } : { kind: "failed", ...apiErrors(r, limits), uses };
 }

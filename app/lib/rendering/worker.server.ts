@@ -5,9 +5,11 @@
 import { parentPort } from "node:worker_threads";
 import type { Config } from "../config/schema";
 import type { Limits, RenderMeta } from "../template";
+import { checkTemplateSource, type CheckOutcome } from "./check";
 import { compileAndRender, type RenderOutcome } from "./render";
 
 export type RenderRequest = {
+  kind: "render";
   id: number;
   source: string;
   config: Config;
@@ -18,18 +20,33 @@ export type RenderRequest = {
   cache?: boolean;
 };
 
+/** A template save's check: compile only, the error lists capped here so little crosses back. */
+export type CheckRequest = {
+  kind: "check";
+  id: number;
+  source: string;
+  partials: Record<string, string>;
+  limits?: Partial<Limits>;
+};
+
+export type WorkerRequest = RenderRequest | CheckRequest;
+
 export type WorkerMessage =
   | { kind: "ready" }
-  | { kind: "done"; id: number; outcome: RenderOutcome }
+  | { kind: "done"; id: number; outcome: RenderOutcome | CheckOutcome }
   /** compileAndRender threw (a bug, not a template error): the pool answers with an exception. */
   | { kind: "failed"; id: number; message: string };
 
 const port = parentPort;
 if (port) {
-  port.on("message", (m: RenderRequest) => {
+  port.on("message", (m: WorkerRequest) => {
     let reply: WorkerMessage;
     try {
-      reply = { kind: "done", id: m.id, outcome: compileAndRender(m.source, m.config, m.meta, { partials: m.partials, limits: m.limits, cache: m.cache }) };
+      const outcome =
+        m.kind === "check"
+          ? checkTemplateSource(m.source, m.partials, m.limits)
+          : compileAndRender(m.source, m.config, m.meta, { partials: m.partials, limits: m.limits, cache: m.cache });
+      reply = { kind: "done", id: m.id, outcome };
     } catch (e) {
       reply = { kind: "failed", id: m.id, message: e instanceof Error ? e.message : String(e) };
     }

@@ -1,5 +1,6 @@
 // Builds: the workshop's commissions. Every read takes the viewer's workshop (and, for a
 // client, their own user id), so a build of another workshop is simply not found.
+import { isInt4 } from "../input/edges";
 import { sql, type Kysely } from "kysely";
 import type { Config } from "../config/schema";
 import { BUILD_STATUSES, type BuildStatus, type Database } from "../db/types";
@@ -143,6 +144,8 @@ export type RevisionNote = {
  * statement: both happen or neither. A stale save changes nothing and answers null.
  */
 export async function saveConfig(db: Db, workshopId: string, id: string, config: Config, expectedVersion: number, note: RevisionNote) {
+  // No stored version is outside int4; such a number would be a database error, not a stale save.
+  if (!isInt4(expectedVersion)) return null;
   const now = new Date();
   const counts = note.counts;
   const message = note.message?.trim() || null;

@@ -4,6 +4,7 @@ import { sql, type Kysely } from "kysely";
 import type { Database, TemplateUses } from "../db/types";
 import { partialsUsed } from "../template/partials-used";
 import { isUuid } from "./builds.server";
+import { isInt4 } from "../input/edges";
 
 type Db = Kysely<Database>;
 
@@ -33,7 +34,7 @@ export async function findTemplateByName(db: Db, workshopId: string, name: strin
 
 /** One version of a workshop template (the latest when `version` is omitted). */
 export async function getTemplateVersion(db: Db, workshopId: string, id: string, version?: number) {
-  if (!isUuid(id)) return undefined;
+  if (!isUuid(id) || (version !== undefined && !isInt4(version, 1))) return undefined;
   let q = db
     .selectFrom("template_versions as v")
     .innerJoin("templates as t", "t.id", "v.template_id")

@@ -34,7 +34,7 @@ export async function templateForRevision(v: Viewer, r: { templateId: string | n
 export async function renderRevision(v: Viewer, b: Build, r: RevisionWithConfig, t: ResolvedTemplate) {
   const build = { name: b.name, client_name: b.client_name, config_saved_at: r.createdAt, config_version: r.number, config: r.config, pinned_template_id: r.templateId, pinned_template_version: r.templateVersion };
   const out = await renderBuildOrSource(v, { build }, t);
-  if (out.kind === "failed") fail(422, `Revision ${r.number} does not render with ${t.name} v${t.version}: ${out.errors.map((e) => e.message).join("; ")}`);
+  if (out.kind === "failed") fail(422, `Revision ${r.number} does not render with ${t.name} v${t.version}: ${out.errors.map((e) => e.message).join("; ")}${out.total > out.errors.length ? ` (the first ${out.errors.length} of ${out.total} errors)` : ""}`);
   return out;
 }
 

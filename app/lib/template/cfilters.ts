@@ -121,6 +121,22 @@ export const C_FILTERS: [string, FilterDef][] = [
       },
     },
   ],
+  // Deliberately unsafe: the model's text exactly as it is, even under `target c`. The filter's
+  // name is the marker a reviewer looks for; an optional reason says why, e.g. raw("a folder name").
+  [
+    "raw",
+    {
+      min: 0,
+      max: 1,
+      input: "any",
+      out: (t) => (t.k === "str" ? STR : t),
+      cSafe: true,
+      fn: (v, [reason]) => {
+        if (reason !== undefined) needStr(reason, "the reason given to 'raw'");
+        return v;
+      },
+    },
+  ],
   ["cstr", { min: 0, max: 0, input: "str", out: cStr, cSafe: true, fn: (v) => toCString(needStr(v, "the input of 'cstr'")) }],
   ["ccomment", { min: 0, max: 0, input: "any", out: cStr, cSafe: true, fn: (v) => toCComment(typeof v === "string" ? v : String(needNum(v, "the input of 'ccomment'"))) }],
   ["cdouble", { min: 0, max: 0, input: "num", out: () => STR, cSafe: true, fn: (v) => toCDouble(needNum(v, "the input of 'cdouble'")) }],

@@ -61,16 +61,30 @@ describe("schema check at compile time", () => {
     expect(errorsOf("@( meta |> constructor )@")[0].message).toMatch(/unknown filter 'constructor'/);
   });
 
-  it("flags model text printed into C without a C context filter", () => {
-    const c = compileTemplate("@[ target c ]@\nconst char *n = \"@( meta.buildName )@\"; @( meta.buildName |> upper )@ @( meta.buildName |> cstr )@ @( meta.buildName |> ccomment )@ @( config.format )@");
-    expect(c.ok).toBe(true);
-    if (c.ok) {
-      expect(c.warnings).toHaveLength(2);
-      expect(c.warnings[0]).toMatchObject({ stage: "check", severity: "warning", line: 2 });
-      expect(c.warnings[0].message).toMatch(/without a C filter/);
+  it("refuses model text printed into C without a C context filter, pointing at the tag with the fix", () => {
+    const src = "@[ target c ]@\nconst char *n = \"@( meta.buildName )@\"; @( meta.buildName |> upper )@ @( meta.buildName |> cstr )@ @( meta.buildName |> ccomment )@ @( config.format )@";
+    const c = compileTemplate(src);
+    expect(c.ok).toBe(false);
+    if (!c.ok) {
+      const errs = c.errors.filter((e) => e.severity === "error");
+      expect(errs).toHaveLength(2);
+      expect(errs[0]).toMatchObject({ stage: "check", severity: "error", line: 2 });
+      expect(src.slice(errs[0].from, errs[0].to)).toBe("@( meta.buildName )@");
+      expect(src.slice(errs[1].from, errs[1].to)).toBe("@( meta.buildName |> upper )@");
+      expect(errs[0].message).toMatch(/without a C filter/);
+      expect(errs[0].message).toMatch(/'\|> cstr'.*'\|> ccomment'.*'\|> cident'.*'\|> raw'/);
     }
     const text = compileTemplate("@( meta.buildName )@");
     expect(text.ok && text.warnings).toEqual([]);
+  });
+
+  it("prints model text into C as it is only when the template says '|> raw'", () => {
+    const c = compileTemplate('@[ target c ]@\n// @( meta.buildName |> raw )@ @( meta.buildName |> raw("reviewed: a folder name") )@');
+    expect(c.ok).toBe(true);
+    if (c.ok) expect(c.warnings).toEqual([]);
+    expect(errorsOf("@( meta.buildName |> raw(1) |> raw(2, 3) )@").map((e) => e.message).join("\n")).toMatch(/raw/);
+    // Filters after 'raw' that keep text free make it free again.
+    expect(compileTemplate("@[ target c ]@ @( meta.buildName |> raw |> default(meta.buildName) )@").ok).toBe(false);
   });
 
   it("checks piece parameters and reports partial cycles", () => {
@@ -112,14 +126,14 @@ describe("schema check at compile time", () => {
     expect(small.ok).toBe(false);
   });
 
-  it("flags model text that reaches C through 'json' or a 'default' fallback", () => {
+  it("refuses model text that reaches C through 'json' or a 'default' fallback", () => {
     const src = "@[ target c ]@ @( meta.revision |> default(meta.buildName) )@ @( config.rig |> json )@ @( meta.revision |> default(0) )@";
     const c = compileTemplate(src, { cache: false });
-    expect(c.ok).toBe(true);
-    if (!c.ok) return;
-    // The first two tags are flagged; a number fallback is not text.
-    expect(c.warnings.map((w) => w.column)).toEqual([src.indexOf("@( meta") + 1, src.indexOf("@( config") + 1]);
-    expect(c.warnings.every((w) => w.message.startsWith("model text printed into C without a C filter"))).toBe(true);
+    expect(c.ok).toBe(false);
+    if (c.ok) return;
+    // The first two tags are refused; a number fallback is not text.
+    expect(c.errors.map((w) => w.column)).toEqual([src.indexOf("@( meta") + 1, src.indexOf("@( config") + 1]);
+    expect(c.errors.every((w) => w.message.startsWith("model text printed into C without a C filter"))).toBe(true);
   });
 
   it("expands pieces a bounded number of times", () => {

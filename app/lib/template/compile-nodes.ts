@@ -107,8 +107,7 @@ function compileText(s: string, from: number, to: number): Run {
 
 function compileOut(env: Env, n: Extract<Node, { k: "out" }>, from: number, to: number): Run {
   const x = compileExpr(env, n.expr);
-  if (env.target === "c" && x.ty.k === "str" && x.ty.free && !x.cSafe)
-    report(env, "model text printed into C without a C filter; add '|> cstr', '|> ccomment' or '|> cident'", n.from, n.to, "warning");
+  checkCOutput(env, x, n.from, n.to);
   if (x.ty.k === "list" || x.ty.k === "obj" || x.ty.k === "record")
     report(env, `cannot print ${x.ty.k === "obj" ? `a whole ${x.ty.name}` : "a list or table"}; print one of its fields or use '|> join' / '|> json'`, n.expr.from, n.expr.to);
   const ev = x.ev;
@@ -125,6 +124,18 @@ function compileOut(env: Env, n: Extract<Node, { k: "out" }>, from: number, to: 
     }
     appendChecked(c, s, from, to);
   };
+}
+
+/**
+ * Under `target c`, model text printed without a C filter is an error (decision 011): a preset
+ * name that closes a comment and opens an #include must never become C code. `|> raw` is the visible,
+ * deliberate way out, for text a reviewer has agreed to print as it is.
+ */
+export const UNFILTERED_C_MESSAGE =
+  "model text printed into C without a C filter: a name holding '*/', a quote or a backslash would become C code. Add '|> cstr' (a string literal), '|> ccomment' (inside a comment) or '|> cident' (an identifier); to print the text exactly as it is, say so with '|> raw'";
+
+function checkCOutput(env: Env, x: { ty: Ty; cSafe: boolean }, from: number, to: number) {
+  if (env.target === "c" && x.ty.k === "str" && x.ty.free && !x.cSafe) report(env, UNFILTERED_C_MESSAGE, from, to);
 }
 
 function compileOver(env: Env, n: Extract<Node, { k: "over" }>, from: number, to: number): Run {

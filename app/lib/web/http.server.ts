@@ -41,8 +41,19 @@ export function failureOf(e: unknown): ThrownFailure | null {
 }
 
 /**
+ * A PostgreSQL "data exception" (SQLSTATE class 22: a NUL or bad Unicode in text, a number
+ * outside its column's range, text that is not a uuid): the input was wrong, not the server.
+ * The edges refuse these first with the field's name (decision 011); this is the backstop.
+ */
+export function isDataException(e: unknown): boolean {
+  const code = typeof e === "object" && e !== null ? (e as { code?: unknown }).code : undefined;
+  return typeof code === "string" && /^22[0-9A-Z]{3}$/.test(code);
+}
+
+/**
  * Wrap an API handler so every thrown failure becomes a JSON answer with its status; a
  * redirect meant for a page becomes a 401, since scripts cannot follow it to a sign-in form.
+ * Unexpected errors become JSON too: a 400 for data PostgreSQL refused, else a logged 500.
  */
 export async function apiAnswer(run: () => Promise<Response>): Promise<Response> {
   try {
@@ -56,7 +67,9 @@ export async function apiAnswer(run: () => Promise<Response>): Promise<Response>
     if (f) return json({ error: f.message }, { status: f.status, headers: f.headers });
     // A connection error that did not come through the app's pool (db/outage.server.ts maps those).
     if (isDatabaseUnavailable(e)) return json({ error: DATABASE_DOWN_MESSAGE }, { status: 503, headers: { "Retry-After": "10" } });
-    throw e;
+    if (isDataException(e)) return json({ error: "The request holds a value the database cannot store (text with a NUL character or broken Unicode, or a number out of range); nothing was changed." }, { status: 400 });
+    console.error(e);
+    return json({ error: "The server hit an unexpected problem; nothing was changed. Try again, and tell the workshop owner if it keeps happening." }, { status: 500 });
   }
 }
 
