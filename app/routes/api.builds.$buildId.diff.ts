@@ -4,8 +4,7 @@
 // the reverse diff.
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { compareRevisions } from "~/lib/revisions/compare.server";
-import { readRevisionNumber } from "~/lib/revisions/params";
+import { compareFromUrl } from "~/lib/revisions/compare.server";
 import { apiAnswer, fail, json } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.diff";
 
@@ -13,12 +12,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
   return apiAnswer(async () => {
     const v = await requireViewer(request, "view:revisions");
     const b = await loadBuildFor(v, params.buildId);
-    const url = new URL(request.url);
-    const from = readRevisionNumber(url.searchParams.get("from"), "from");
-    if (!from.ok) fail(400, from.error);
-    const to = readRevisionNumber(url.searchParams.get("to"), "to");
-    if (!to.ok) fail(400, to.error);
-    const c = await compareRevisions(v, b, from.value, to.value, url.searchParams.get("template") || null);
+    const c = await compareFromUrl(v, b, new URL(request.url));
     if ((request.headers.get("Accept") ?? "").toLowerCase().includes("text/x-diff")) {
       if (c.text.kind === "too-large") fail(422, `The rendered outputs differ in more than ${c.text.limit} lines; compare nearer revisions.`);
       return new Response(c.text.patch, { headers: { "Content-Type": "text/x-diff; charset=utf-8", "Cache-Control": "no-store", "X-Template": `${c.template.name}@${c.template.version}` } });

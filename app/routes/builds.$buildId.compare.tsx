@@ -5,9 +5,7 @@ import { ModelChanges } from "~/components/revisions/ModelChanges";
 import { TextDiffView } from "~/components/revisions/TextDiffView";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { compareRevisions } from "~/lib/revisions/compare.server";
-import { readRevisionNumber } from "~/lib/revisions/params";
-import { fail } from "~/lib/web/http.server";
+import { compareFromUrl } from "~/lib/revisions/compare.server";
 import type { Route } from "./+types/builds.$buildId.compare";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revision ${data.from.number} → ${data.to.number} · Hiltbench` : "Compare · Hiltbench" }];
@@ -15,12 +13,7 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revision
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:revisions");
   const b = await loadBuildFor(v, params.buildId);
-  const url = new URL(request.url);
-  const from = readRevisionNumber(url.searchParams.get("from"), "from");
-  if (!from.ok) fail(400, from.error);
-  const to = readRevisionNumber(url.searchParams.get("to"), "to");
-  if (!to.ok) fail(400, to.error);
-  const c = await compareRevisions(v, b, from.value, to.value, url.searchParams.get("template") || null);
+  const c = await compareFromUrl(v, b, new URL(request.url));
   return { buildId: b.id, current: b.config_version, ...c };
 }
 

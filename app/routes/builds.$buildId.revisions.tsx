@@ -9,6 +9,7 @@ import { listRevisionsFor, restoreRevisionFor, revisionAuthorsFor } from "~/lib/
 import { readListQuery, readRevisionNumber } from "~/lib/revisions/params";
 import { fail } from "~/lib/web/http.server";
 import { int4From } from "~/lib/input/edges";
+import { Pager } from "~/components/Pager";
 import type { Route } from "./+types/builds.$buildId.revisions";
 
 export const meta: Route.MetaFunction = ({ matches }) => {
@@ -190,13 +191,7 @@ export default function RevisionsPage({ loaderData, actionData }: Route.Componen
           ) : null}
         </tbody>
       </table>
-      <nav className="flex items-center gap-3 text-sm" aria-label="Pages">
-        <span className="text-iron-400">
-          {total} revision{total === 1 ? "" : "s"} · page {query.page} of {pages}
-        </span>
-        {query.page > 1 ? <Link to={withParams({ page: String(query.page - 1) })}>Previous</Link> : null}
-        {query.page < pages ? <Link to={withParams({ page: String(query.page + 1) })}>Next</Link> : null}
-      </nav>
+      <Pager total={total} noun={["revision", "revisions"]} page={query.page} pages={pages} linkTo={(n) => withParams({ page: String(n) })} />
     </div>
   );
 }

@@ -4,6 +4,7 @@ import { parseBuildQuery, STATUS_LABELS } from "~/lib/forms/build-forms";
 import { BUILD_STATUSES } from "~/lib/db/types";
 import { can } from "~/lib/auth/permissions";
 import { buildsFor } from "~/lib/builds/builds.server";
+import { Pager } from "~/components/Pager";
 import type { Route } from "./+types/builds._index";
 
 export const meta: Route.MetaFunction = () => [{ title: "Builds · Hiltbench" }];
@@ -115,13 +116,7 @@ export default function Builds({ loaderData }: Route.ComponentProps) {
           ) : null}
         </tbody>
       </table>
-      <nav className="mt-4 flex items-center gap-3 text-sm" aria-label="Pages">
-        <span className="text-iron-400">
-          {total} build{total === 1 ? "" : "s"} · page {query.page} of {pages}
-        </span>
-        {query.page > 1 ? <Link to={withParams({ page: String(query.page - 1) })}>Previous</Link> : null}
-        {query.page < pages ? <Link to={withParams({ page: String(query.page + 1) })}>Next</Link> : null}
-      </nav>
+      <Pager total={total} noun={["build", "builds"]} page={query.page} pages={pages} linkTo={(n) => withParams({ page: String(n) })} className="mt-4" />
     </div>
   );
 }

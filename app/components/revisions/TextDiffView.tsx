@@ -23,20 +23,28 @@ function Words({ text, words, kind }: { text: string; words?: Segment[]; kind: "
 const tone = { context: "", removed: "bg-signal-error/10", added: "bg-signal-ok/10" } as const;
 const sign = { context: " ", removed: "-", added: "+" } as const;
 
+function HunkHeader({ h }: { h: Hunk }) {
+  return (
+    <tr className="text-iron-400">
+      <td colSpan={4} className="py-1">
+        @@ −{h.oldStart},{h.oldLines} +{h.newStart},{h.newLines} @@
+      </td>
+    </tr>
+  );
+}
+
+const LineNo = ({ n }: { n: number | string | undefined }) => <td className="w-10 select-none pr-2 text-right text-iron-500">{n ?? ""}</td>;
+
 function Unified({ hunks }: { hunks: Hunk[] }) {
   return (
     <table className="w-full font-mono text-xs" data-testid="text-diff-unified">
       <tbody>
         {hunks.map((h, hi) => [
-          <tr key={`h${hi}`} className="text-iron-400">
-            <td colSpan={4} className="py-1">
-              @@ −{h.oldStart},{h.oldLines} +{h.newStart},{h.newLines} @@
-            </td>
-          </tr>,
+          <HunkHeader key={`h${hi}`} h={h} />,
           ...h.rows.map((r, ri) => (
             <tr key={`${hi}-${ri}`} className={tone[r.kind]} data-kind={r.kind}>
-              <td className="w-10 select-none pr-2 text-right text-iron-500">{r.kind !== "added" ? r.oldNo : ""}</td>
-              <td className="w-10 select-none pr-2 text-right text-iron-500">{r.kind !== "removed" ? r.newNo : ""}</td>
+              <LineNo n={r.kind !== "added" ? r.oldNo : ""} />
+              <LineNo n={r.kind !== "removed" ? r.newNo : ""} />
               <td className="w-4 select-none">{sign[r.kind]}</td>
               <td className="whitespace-pre-wrap break-all">
                 <Words text={r.text} words={r.kind === "context" ? undefined : r.words} kind={r.kind} />
@@ -54,18 +62,14 @@ function SideBySide({ hunks }: { hunks: Hunk[] }) {
     <table className="w-full table-fixed font-mono text-xs" data-testid="text-diff-side">
       <tbody>
         {hunks.map((h, hi) => [
-          <tr key={`h${hi}`} className="text-iron-400">
-            <td colSpan={4} className="py-1">
-              @@ −{h.oldStart},{h.oldLines} +{h.newStart},{h.newLines} @@
-            </td>
-          </tr>,
+          <HunkHeader key={`h${hi}`} h={h} />,
           ...h.side.map((s, si) => (
             <tr key={`${hi}-${si}`}>
-              <td className="w-10 select-none pr-2 text-right text-iron-500">{s.left?.no ?? ""}</td>
+              <LineNo n={s.left?.no} />
               <td className={`whitespace-pre-wrap break-all ${s.left ? tone[s.left.kind] : ""}`} data-side="old">
                 {s.left ? <Words text={s.left.text} words={s.left.words} kind={s.left.kind} /> : null}
               </td>
-              <td className="w-10 select-none pr-2 text-right text-iron-500">{s.right?.no ?? ""}</td>
+              <LineNo n={s.right?.no} />
               <td className={`whitespace-pre-wrap break-all ${s.right ? tone[s.right.kind] : ""}`} data-side="new">
                 {s.right ? <Words text={s.right.text} words={s.right.words} kind={s.right.kind} /> : null}
               </td>

@@ -7,6 +7,7 @@ import { fail } from "../web/http.server";
 import { diffModels, type Change } from "../model-diff";
 import { diffTexts, type TextDiff } from "../text-diff/text-diff";
 import { getRevision, listRevisions, restoreRevision, revisionAuthors, type RevisionQuery, type RevisionWithConfig } from "../repo/revisions.server";
+import { readRevisionNumber } from "./params";
 import { renderBuildOrSource, resolveTemplate, type ResolvedTemplate } from "../rendering/service.server";
 
 type Build = { id: string; name: string; client_name: string; pinned_template_id: string | null; pinned_template_version: number | null };
@@ -77,6 +78,15 @@ export async function compareRevisions(v: Viewer, b: Build, fromN: number, toN: 
 }
 
 // The revisions pages and API as the viewer's workshop sees them (routes do not hold the db).
+/** The comparison a URL asks for (`?from=a&to=b&template=`), shared by the compare page and the diff API. */
+export async function compareFromUrl(v: Viewer, b: Build, url: URL): Promise<Comparison> {
+  const from = readRevisionNumber(url.searchParams.get("from"), "from");
+  if (!from.ok) fail(400, from.error);
+  const to = readRevisionNumber(url.searchParams.get("to"), "to");
+  if (!to.ok) fail(400, to.error);
+  return compareRevisions(v, b, from.value, to.value, url.searchParams.get("template") || null);
+}
+
 export function listRevisionsFor(v: Viewer, buildId: string, q: RevisionQuery) {
   return listRevisions(db(), v.workshop.id, buildId, q);
 }
