@@ -18,7 +18,7 @@ import type { FileStorage } from "../app/lib/storage/types";
 const BASE_HZ: Record<string, number> = { ashfall: 98, glasswind: 147, tidebreak: 82.4, emberdusk: 110, northlight: 130.8 };
 
 export async function seedDemoFonts(db: Kysely<Database>, workshopId: string, storage: FileStorage): Promise<number> {
-  const builds = await db.selectFrom("builds").select(["id", "name", "config"]).where("workshop_id", "=", workshopId).where("name", "in", ["Kestrel", "Harrier"]).execute();
+  const builds = await db.selectFrom("builds").select(["id", "name", "config", "status"]).where("workshop_id", "=", workshopId).where("name", "in", ["Kestrel", "Harrier"]).execute();
   let n = 0;
   for (const b of builds) {
     for (const font of b.config.fonts) {
@@ -37,5 +37,9 @@ export async function seedDemoFonts(db: Kysely<Database>, workshopId: string, st
       }
     }
   }
+  // Receiving a font is a config save, which sends a build in review back to configuring
+  // (migration 0760). In the demo story the fonts came before the review was asked for, so each
+  // build keeps the status the seed gave it.
+  for (const b of builds) await db.updateTable("builds").set({ status: b.status }).where("id", "=", b.id).execute();
   return n;
 }

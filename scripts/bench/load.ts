@@ -36,7 +36,7 @@ export async function run(): Promise<void> {
   try {
     const databaseUrl = `${cluster.baseUrl}/hb_load`;
     runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl });
-    const fakes = await startFakes({ FAKE_GITHUB_PORT: "0" });
+    const fakes = await startFakes({ FAKE_GITHUB_PORT: "0", FAKE_SMTP_PORT: "0", MAIL_SINK_DATABASE_URL: databaseUrl });
     stops.push(() => stopChild(fakes.child));
     const port = String(await freePort());
     const base = `http://127.0.0.1:${port}`;

@@ -32,7 +32,7 @@ export async function startSystem(): Promise<System> {
   const cluster = startCluster(path.join(work, "pg"), await freePort());
   const databaseUrl = `${cluster.baseUrl}/hb_system`;
   runTsx("db/setup.ts", ["--seed"], { DATABASE_URL: databaseUrl });
-  const fakes = await startFakes({ FAKE_GITHUB_PORT: "0" });
+  const fakes = await startFakes({ FAKE_GITHUB_PORT: "0", FAKE_SMTP_PORT: "0", MAIL_SINK_DATABASE_URL: databaseUrl });
   const sql = new pg.Pool({ connectionString: databaseUrl, max: 2 });
   sql.on("error", () => {}); // the tests restart the cluster under it
   const sessionSecret = randomBytes(24).toString("hex");
