@@ -17,7 +17,7 @@ async function timedHealth(request: APIRequestContext): Promise<number> {
   return performance.now() - t0;
 }
 
-test("ten hostile template saves at once: /healthz stays under 100 ms and each answer is capped", async ({ playwright, sql }) => {
+test("ten hostile template saves at once: /healthz is not held (median under 100 ms) and each answer is capped", async ({ playwright, sql }) => {
   test.setTimeout(120_000);
   const name = `hostile-save-${uniq()}`;
   const id = await insertTemplate(sql, name, ["one"]);
@@ -52,11 +52,14 @@ test("ten hostile template saves at once: /healthz stays under 100 ms and each a
         `${during.length} probes, median ${p(0.5).toFixed(1)} ms, p95 ${p(0.95).toFixed(1)} ms, max ${sorted[sorted.length - 1].toFixed(1)} ms; answers ${answers.map((a) => `${a.status}/${(a.body.byteLength / 1024).toFixed(1)} KB`).join(", ")}`,
     );
     expect(during.length).toBeGreaterThan(5);
-    // The latency bound is a property of the server, measurable only on a quiet machine: when
-    // /healthz alone already takes 30 ms or more (other test runs on the same 2 cores), the
-    // figures are logged and the bound is not asserted (decision 011).
+    // Timings are measured, not asserted (they belong to `npm run bench`), except for what tells
+    // an event-loop compile from a worker one: on the event loop each 244 KB save held /healthz
+    // about 1.5 s, so most probes would wait that long; in the workers the median probe is not held
+    // at all. The median is asserted (under 100 ms) only when /healthz alone is quick (under 30 ms
+    // median), since other test runs on the same 2 cores slow every probe. The maximum is logged:
+    // one probe can meet a garbage collection or the workers' start (decision 011).
     const quiet = [...baseline].sort((a, b) => a - b)[2] < 30;
-    if (quiet) expect(Math.max(...during)).toBeLessThan(100);
+    if (quiet) expect(p(0.5)).toBeLessThan(100);
     else console.log("healthz bound not asserted: the machine is busy (healthz alone ≥ 30 ms median)");
     for (const a of answers) {
       expect(a.status).toBe(422);
