@@ -11,7 +11,7 @@ import { fail } from "../web/http.server";
 import { can, type Permission } from "./permissions";
 import { limitApi } from "../limits/rate-limit.server";
 import { sessions } from "./session.server";
-import { findUserByToken } from "../repo/tokens.server";
+import { tokenViewerRow } from "../repo/tokens.server";
 import { signInGitHubUser, membershipFor, type GitHubProfile } from "../repo/users.server";
 import type { Role } from "../db/types";
 
@@ -73,9 +73,14 @@ export function auth(): Authenticator<string> {
   return authenticator;
 }
 
+type MembershipRow = NonNullable<Awaited<ReturnType<typeof membershipFor>>>;
+
 async function viewerFromUserId(userId: string, via: Viewer["via"]): Promise<Viewer | null> {
   const m = await membershipFor(db(), userId);
-  if (!m) return null;
+  return m ? viewerOf(m, via) : null;
+}
+
+function viewerOf(m: MembershipRow, via: Viewer["via"]): Viewer {
   return {
     user: { id: m.user_id, displayName: m.display_name, githubLogin: m.github_login, email: m.email },
     workshop: { id: m.workshop_id, name: m.workshop_name },
@@ -100,9 +105,9 @@ export async function requireViewer(request: Request, permission?: Permission): 
   if (authz) {
     const match = /^Bearer\s+(\S+)$/i.exec(authz);
     if (!match) fail(401, "The Authorization header must be 'Bearer <token>'.");
-    const userId = await findUserByToken(db(), match[1]);
-    if (!userId) fail(401, "This API token is not valid (unknown or revoked).");
-    viewer = await viewerFromUserId(userId, "token");
+    const found = await tokenViewerRow(db(), match[1]);
+    if (!found) fail(401, "This API token is not valid (unknown or revoked).");
+    viewer = found.member ? viewerOf(found.member, "token") : null;
   } else {
     const userId = await getSessionUserId(request);
     if (!userId) {
