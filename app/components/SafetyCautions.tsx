@@ -28,13 +28,14 @@ export const DEFER_NOTE =
 
 export function SafetyCautions({ headingLevel = 2, cellOnly = false, className = "" }: SafetyCautionsProps) {
   const H = headingLevel === 2 ? "h2" : "h3";
+  const Sub = headingLevel === 2 ? "h3" : "h4"; // one level below, so heading levels never skip
   return (
     <section className={`card border-l-4 border-l-signal-warning ${className}`} aria-labelledby="safety-cautions-heading" data-testid="safety-cautions">
       <H id="safety-cautions-heading" className="text-lg">
         Safety cautions
       </H>
       <p className="mt-1 text-sm font-semibold text-brass-300">{DEFER_NOTE}</p>
-      <h4 className="mt-3 text-sm uppercase tracking-wide text-iron-400">Lithium-ion cells</h4>
+      <Sub className="mt-3 text-sm uppercase tracking-wide text-iron-400">Lithium-ion cells</Sub>
       <ul className="mt-1 list-disc space-y-1 pl-5 text-sm">
         {CELL_CAUTIONS.map((c) => (
           <li key={c}>{c}</li>
@@ -42,7 +43,7 @@ export function SafetyCautions({ headingLevel = 2, cellOnly = false, className =
       </ul>
       {cellOnly ? null : (
         <>
-          <h4 className="mt-3 text-sm uppercase tracking-wide text-iron-400">Wiring and solder joints</h4>
+          <Sub className="mt-3 text-sm uppercase tracking-wide text-iron-400">Wiring and solder joints</Sub>
           <ul className="mt-1 list-disc space-y-1 pl-5 text-sm">
             {WIRING_CAUTIONS.map((c) => (
               <li key={c}>{c}</li>

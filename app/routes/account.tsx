@@ -80,7 +80,9 @@ export default function Account({ loaderData }: Route.ComponentProps) {
               <th>Starts with</th>
               <th>Created</th>
               <th>Last used</th>
-              <th />
+              <th>
+                <span className="sr-only">Actions</span>
+              </th>
             </tr>
           </thead>
           <tbody>

@@ -72,7 +72,7 @@ test("a builder edits looks with the keyboard alone", async ({ page, signIn, sql
     await page.keyboard.press("Control+Shift+z");
     await expect(chamber.getByTestId("layer")).toHaveCount(layers + 1);
     await page.keyboard.press("Control+s");
-    await expect(page.getByTestId("save-message")).toContainText("Saved as version");
+    await expect(page.getByTestId("save-message")).toContainText("Saved as revision");
 
     const stored = (await sql.query("SELECT config FROM builds WHERE id = $1", [id])).rows[0].config as Config;
     expect(stored.presets.map((p) => p.id)).toEqual(["glasswind", "ashfall", "tidebreak", "emberdusk", "northlight"]);
