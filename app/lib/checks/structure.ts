@@ -85,7 +85,7 @@ function one(issue: z.core.$ZodIssue, input: unknown, path: string): Diagnostic 
     }
     case "invalid_value": {
       if (issue.path.length === 1 && issue.path[0] === "format")
-        return d("unknown-format", `This is not a Hiltbench config (format is ${show(value)}).`, `Set format to ${listChoices(issue.values)}.`);
+        return d("unknown-format", `This is not a Hiltbench config (format is ${show(value)}).`, `Set format to ${listChoices(issue.values)} (a "hiltbench.config/1" document is also read, and upgraded).`);
       if (value === undefined) return d("missing-field", `${where} is missing.`, `Add it: choose ${listChoices(issue.values)}.`);
       return d("unknown-choice", `${where} is ${show(value)}, which is not one of the choices.`, `Choose ${listChoices(issue.values)}.`);
     }

@@ -94,7 +94,7 @@ describe("model diff in words", () => {
 
   it("reads a drift layer's speed with its unit, and an edit of a layer among reordered ones as an edit", () => {
     const a = demoConfig();
-    a.presets[0].looks.chamber.layers.splice(1, 0, { kind: "drift", enabled: true, opacity: 1, blend: "normal", when: "always", colors: ["#ff0000", "#0000ff"], bandPixels: 3, speedPixelsPerSecond: 12, direction: "to-tip" });
+    a.presets[0].looks.chamber.layers.splice(1, 0, { id: "l-embers", kind: "drift", enabled: true, opacity: 1, blend: "normal", when: "always", colors: ["#ff0000", "#0000ff"], bandPixels: 3, speedPixelsPerSecond: 12, direction: "to-tip" });
     const b = structuredClone(a);
     (b.presets[0].looks.chamber.layers[1] as Layer & { speedPixelsPerSecond: number }).speedPixelsPerSecond = 8;
     expect(texts(a, b)).toEqual(["Preset Ashfall › Chamber window › layer 2 (drift): speed 12 → 8 px/s"]);
