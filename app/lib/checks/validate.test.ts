@@ -198,7 +198,12 @@ describe("layer ids", () => {
     const r = validateConfig(v1);
     expect(r.config).toEqual(demoConfig());
     const v2 = { ...v1, format: "hiltbench.config/2" };
-    expect(validate(v2).filter((x) => x.severity === "error")[0]).toMatchObject({ code: "missing-field", path: "presets[0].looks.blade.layers[0].id" });
+    expect(validate(v2).filter((x) => x.severity === "error")[0]).toMatchObject({
+      code: "missing-field",
+      path: "presets[0].looks.blade.layers[0].id",
+      message: expect.stringContaining("every layer has an id"),
+      hint: expect.stringContaining("hiltbench.config/1"),
+    });
   });
 });
 
