@@ -83,8 +83,8 @@ export default function ChecksPage({ loaderData, actionData }: Route.ComponentPr
           Import / export
         </h2>
         <p className="text-sm text-iron-300">
-          Export the config as a <code>hiltbench.config/1</code> JSON file, edit or keep it, and import it back. An import replaces the whole config; it is checked first, and a
-          file with errors changes nothing.
+          Export the config as a <code>hiltbench.config/2</code> JSON file, edit or keep it, and import it back (an older <code>hiltbench.config/1</code> file is
+          read too: its layers get ids). An import replaces the whole config; it is checked first, and a file with errors changes nothing.
         </p>
         <a className="btn" href={`/builds/${buildId}/config.json`} download>
           Export {buildName} as JSON

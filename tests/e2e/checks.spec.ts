@@ -114,6 +114,33 @@ test("importing a broken file lists the problems and stores nothing; a valid one
   });
 });
 
+test("an old hiltbench.config/1 file imports: its layers get ids, and the export is the /2 form", async ({ page, signIn, sql }) => {
+  const id = await buildIdByName(sql, "Kestrel");
+  await keepingConfig(sql, id, async (before) => {
+    await signIn("demo-builder");
+    await page.goto(`/builds/${id}/checks`);
+    // What an export from before layer ids looks like: format /1, layers without "id".
+    const old = structuredClone(before.config);
+    old.format = "hiltbench.config/1";
+    for (const p of old.presets) for (const look of Object.values(p.looks) as { layers: Record<string, unknown>[] }[]) for (const l of look.layers) delete l.id;
+    old.presets[0].name = "Ashfall (kept)";
+    await page.getByLabel(/Config file/).setInputFiles({ name: "kestrel-old.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(old)) });
+    await page.getByRole("button", { name: "Import" }).click();
+    const result = page.getByTestId("import-result");
+    await expect(result.getByText(`Imported "kestrel-old.json" as version ${before.version + 1}.`)).toBeVisible();
+    const after = await storedConfig(sql, id);
+    expect(after.config.format).toBe("hiltbench.config/2");
+    expect(after.config.presets[0].name).toBe("Ashfall (kept)");
+    const ids = after.config.presets[0].looks.blade.layers.map((l: { id: string }) => l.id);
+    for (const x of ids) expect(x).toMatch(/^l-[0-9a-z]{6}$/);
+    expect(new Set(ids).size).toBe(ids.length);
+
+    const download = page.waitForEvent("download");
+    await page.getByRole("link", { name: "Export Kestrel as JSON" }).click();
+    expect(JSON.parse(await readFile((await (await download).path())!, "utf8"))).toEqual(after.config);
+  });
+});
+
 test("the import refuses an oversized file with a message and a reviewer cannot import", async ({ page, signIn, sql, playwright }) => {
   const id = await buildIdByName(sql, "Kestrel");
   const before = await storedConfig(sql, id);

@@ -42,6 +42,7 @@ async function openKestrelLooks(page: Page) {
 test("a builder edits a look with live checks, reorders, undoes, saves and finds it stored", async ({ page, signIn, sql }) => {
   const kestrel = await keepKestrel(sql);
   try {
+    const original = await storedConfig(sql, kestrel.id);
     await signIn("demo-builder");
     await openKestrelLooks(page);
     await expect(page.getByTestId("check-status")).toContainText(/warning|No problems/);
@@ -106,6 +107,11 @@ test("a builder edits a look with live checks, reorders, undoes, saves and finds
     const stored = await storedConfig(sql, kestrel.id);
     expect(stored.presets.map((p) => p.id)).toEqual(["glasswind", "ashfall", "tidebreak", "emberdusk", "northlight"]);
     expect(stored.presets[1].looks.chamber.layers[before]).toMatchObject({ kind: "breathe", color: "#00ff88", periodMs: 2000 });
+    // The new layer has a fresh id of its own; the layers that were there keep theirs.
+    const chamberIds = stored.presets[1].looks.chamber.layers.map((l) => l.id);
+    expect(chamberIds[before]).toMatch(/^l-[0-9a-z]{6}$/);
+    expect(new Set(chamberIds).size).toBe(chamberIds.length);
+    expect(chamberIds.slice(0, before)).toEqual(original.presets[0].looks.chamber.layers.map((l) => l.id));
 
     await page.reload();
     await expect.poll(() => presetOrder(page)).toEqual(["glasswind", "ashfall", "tidebreak", "emberdusk", "northlight"]);

@@ -54,6 +54,8 @@ function one(issue: z.core.$ZodIssue, input: unknown, path: string): Diagnostic 
   switch (issue.code) {
     case "invalid_type": {
       const expected = EXPECTED[issue.expected] ?? issue.expected;
+      if (value === undefined && issue.path.at(-1) === "id" && issue.path.at(-3) === "layers")
+        return d("missing-field", `${where} is missing: in a hiltbench.config/2 document every layer has an id.`, 'Give the layer an id of its own in this look (e.g. "l-3k9x2a"), or send the document as "hiltbench.config/1", whose layers get ids when read.');
       if (value === undefined) return d("missing-field", `${where} is missing.`, `Add it: it should be ${expected}.`);
       if (typeof value === "number" && !Number.isFinite(value))
         return d("not-a-number", `${where} is ${show(value)}, which is not a usable number.`, "Check the calculation that produced it; JSON cannot carry NaN or Infinity either.");
@@ -85,7 +87,7 @@ function one(issue: z.core.$ZodIssue, input: unknown, path: string): Diagnostic 
     }
     case "invalid_value": {
       if (issue.path.length === 1 && issue.path[0] === "format")
-        return d("unknown-format", `This is not a Hiltbench config (format is ${show(value)}).`, `Set format to ${listChoices(issue.values)}.`);
+        return d("unknown-format", `This is not a Hiltbench config (format is ${show(value)}).`, `Set format to ${listChoices(issue.values)} (a "hiltbench.config/1" document is also read, and upgraded).`);
       if (value === undefined) return d("missing-field", `${where} is missing.`, `Add it: choose ${listChoices(issue.values)}.`);
       return d("unknown-choice", `${where} is ${show(value)}, which is not one of the choices.`, `Choose ${listChoices(issue.values)}.`);
     }

@@ -22,6 +22,12 @@ const ROWS: Row[] = [
   { code: "duplicate-button-id", trigger: (c) => void (c.rig.buttons[1].id = "activation") },
   { code: "duplicate-font-id", trigger: (c) => void (c.fonts[1].id = "ashfall") },
   { code: "duplicate-preset-id", trigger: (c) => void (c.presets[1].id = "ashfall") },
+  // Layer ids are unique within a look; the same id in another look or preset is fine.
+  {
+    code: "duplicate-layer-id",
+    trigger: (c) => void (blade(c)[3].id = blade(c)[1].id),
+    pass: (c) => void ((blade(c)[3].id = chamber(c)[0].id), (blade(c, 1)[0].id = blade(c)[0].id)),
+  },
   { code: "duplicate-preset-name", trigger: (c) => void (c.presets[1].name = " ASHFALL "), pass: (c) => void (c.presets[1].name = "Ashfall II") },
   { code: "duplicate-font-folder", trigger: (c) => void (c.fonts[1].folder = "ASHFALL"), pass: (c) => void (c.fonts[1].folder = "ashfall-2") },
   { code: "unknown-font", trigger: (c) => void (c.presets[0].fontId = "squall") },
@@ -175,6 +181,31 @@ function codesAfter(fn: (c: Config) => void): { codes: Set<string>; all: ReturnT
   const all = validate(c);
   return { codes: new Set(all.map((d) => d.code)), all };
 }
+
+describe("layer ids", () => {
+  it("reports a layer id used twice in one look at the later layer's id, naming the first", () => {
+    const c = demoConfig();
+    blade(c)[4].id = blade(c)[1].id;
+    const d = validate(c).filter((x) => x.code === "duplicate-layer-id");
+    expect(d).toEqual([
+      expect.objectContaining({ severity: "error", path: "presets[0].looks.blade.layers[4].id", message: expect.stringContaining(`"${blade(c)[1].id}" is used twice`) }),
+    ]);
+    expect(d[0].message).toContain("layer 2");
+  });
+
+  it("reads a hiltbench.config/1 document as its upgrade, and refuses a /2 layer without an id", () => {
+    const v1 = JSON.parse(JSON.stringify(demoConfig()).replace(/"id":"l-[0-9a-z]{6}",/g, "").replace("hiltbench.config/2", "hiltbench.config/1"));
+    const r = validateConfig(v1);
+    expect(r.config).toEqual(demoConfig());
+    const v2 = { ...v1, format: "hiltbench.config/2" };
+    expect(validate(v2).filter((x) => x.severity === "error")[0]).toMatchObject({
+      code: "missing-field",
+      path: "presets[0].looks.blade.layers[0].id",
+      message: expect.stringContaining("every layer has an id"),
+      hint: expect.stringContaining("hiltbench.config/1"),
+    });
+  });
+});
 
 describe("semantic rules", () => {
   it("has unique codes in the table", () => {

@@ -13,6 +13,7 @@ import { referenceRules } from "./rules/references";
 import { rigLayerCheck, rigRules } from "./rules/rig";
 import { timingLayerCheck } from "./rules/timing";
 import { configSchema, type Config } from "../config/schema";
+import { upgradeConfig } from "../config/upgrade";
 import { structureDiagnostics } from "./structure";
 
 export type { Diagnostic } from "./diagnostics";
@@ -29,7 +30,9 @@ export type ValidationResult = { config: Config | null; diagnostics: Diagnostic[
  */
 export type ValidateOptions = { power?: "estimate" | "engine" };
 
-export function validateConfig(input: unknown, options: ValidateOptions = {}): ValidationResult {
+export function validateConfig(raw: unknown, options: ValidateOptions = {}): ValidationResult {
+  // An older form ("hiltbench.config/1") is judged, and answered, as its upgrade.
+  const input = upgradeConfig(raw);
   const parsed = configSchema.safeParse(input);
   if (!parsed.success) {
     const diagnostics = structureDiagnostics(parsed.error.issues, input);

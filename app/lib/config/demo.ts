@@ -1,5 +1,6 @@
 // The demo workshop's configs (Ember & Anvil Props). Everything here is invented: the builds
 // are named after fictional birds of prey, the fonts after invented weather.
+import { fillLayerIds } from "./layer-ids";
 import { newLayer } from "./layers";
 import { CONFIG_FORMAT, type Config, type Look, type Preset } from "./schema";
 
@@ -46,9 +47,18 @@ function preset(id: string, name: string, fontId: string, blade: Look, chamber: 
   return { id, name, fontId, looks: { [BLADE]: blade, [CHAMBER]: chamberLook(chamber), [CRYSTAL]: crystalLook(crystal) } };
 }
 
+/**
+ * The demo's layers get derived ids (preset, channel, position), not fresh ones: every call
+ * gives the same document, exactly what upgrading its "hiltbench.config/1" form gives.
+ */
+function withDerivedIds(c: Config): Config {
+  const bare = { ...c, presets: c.presets.map((p) => ({ ...p, looks: Object.fromEntries(Object.entries(p.looks).map(([k, look]) => [k, { layers: look.layers.map(({ id: _, ...l }) => l) }])) })) };
+  return fillLayerIds(bare) as Config;
+}
+
 /** A complete, valid config: three channels, two buttons, four fonts received and one promised, five presets. */
 export function demoConfig(): Config {
-  return {
+  return withDerivedIds({
     format: CONFIG_FORMAT,
     rig: {
       board: {
@@ -135,7 +145,7 @@ export function demoConfig(): Config {
       { event: "next-preset", trigger: { input: "button", buttonId: "auxiliary", gesture: "press", state: "unlit" } },
       { event: "previous-preset", trigger: { input: "button", buttonId: "auxiliary", gesture: "double-press", state: "unlit" } },
     ],
-  };
+  });
 }
 
 /** A second, smaller demo: same rig family, fewer presets, for the "Harrier" build. */

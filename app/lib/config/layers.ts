@@ -1,11 +1,15 @@
 // Sensible starting values for each layer kind: what the look editor adds, what the demo
 // seed is built from. Keeping them here means the editor, the seed and the tests agree.
+import { freshLayerId } from "./layer-ids";
 import type { Layer, LayerKind, LayerOf } from "./schema";
 
 const common = { enabled: true, opacity: 1, blend: "normal", when: "always" } as const;
 
+type Draft = { [K in LayerKind]: Omit<LayerOf<K>, "id"> };
+
+/** A new layer of `kind` with a fresh id (unless `overrides` carries one). */
 export function newLayer<K extends LayerKind>(kind: K, overrides: Partial<LayerOf<K>> = {}): LayerOf<K> {
-  const base: Record<LayerKind, Layer> = {
+  const base: Draft = {
     fill: { kind: "fill", ...common, color: "#3a7bff" },
     gradient: {
       kind: "gradient",
@@ -46,5 +50,5 @@ export function newLayer<K extends LayerKind>(kind: K, overrides: Partial<LayerO
     wipe: { kind: "wipe", ...common, event: "ignition", durationMs: 320, easing: "ease-out" },
     mirror: { kind: "mirror", ...common, channelId: "blade", fit: "stretch" },
   };
-  return { ...(base[kind] as LayerOf<K>), ...overrides };
+  return { id: freshLayerId(), ...base[kind], ...overrides } as unknown as LayerOf<K>;
 }

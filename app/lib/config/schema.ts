@@ -1,10 +1,13 @@
 // The one typed truth for a build's configuration: zod schemas, with the TypeScript types
-// inferred from them. The JSON form ("hiltbench.config/1") is the public exchange format, so
-// field names here are part of a contract: add fields, never rename them.
+// inferred from them. The JSON form ("hiltbench.config/2") is the public exchange format, so
+// field names here are part of a contract: add fields, never rename them. Older forms are
+// upgraded when read (upgrade.ts); the format string says which form a document is.
 import { z } from "zod";
 import { badTextReason } from "../input/edges";
 
-export const CONFIG_FORMAT = "hiltbench.config/1" as const;
+export const CONFIG_FORMAT = "hiltbench.config/2" as const;
+/** The first form, before layers had ids; still read, upgraded on the way in (upgrade.ts). */
+export const CONFIG_FORMAT_V1 = "hiltbench.config/1" as const;
 
 /** Ids are short slugs so they survive being file names, JSON paths and C identifiers. */
 export const idSchema = z
@@ -130,6 +133,8 @@ const rangeSchema = z.strictObject({
 });
 
 const layerCommon = {
+  /** Stable within its look across reorders and edits ("l-" + 6 base-36 characters when made here; see layer-ids.ts). */
+  id: idSchema,
   enabled: z.boolean(),
   opacity: fraction(),
   blend: z.enum(BLEND_MODES),

@@ -7,6 +7,7 @@ import { createReadStream } from "node:fs";
 import type { Kysely } from "kysely";
 import { storeCheckedConfigIn } from "../checks/save.server";
 import type { Config } from "../config/schema";
+import { upgradeStored } from "../config/upgrade";
 import type { Database } from "../db/types";
 import type { FileStorage } from "../storage/types";
 import { compileLayout, type FontLayout } from "./layout";
@@ -69,7 +70,7 @@ export async function acceptUpload(db: Kysely<Database>, storage: FileStorage, i
   return db.transaction().execute(async (trx) => {
     const build = await trx.selectFrom("builds").select(["config", "config_version"]).where("id", "=", input.buildId).where("workshop_id", "=", input.workshopId).forUpdate().executeTakeFirst();
     if (!build) throw new UploadRefused("No build with this id in your workshop.", 404);
-    const config = withFontReport(build.config, input.fontId, report);
+    const config = withFontReport(upgradeStored(build.config), input.fontId, report);
     for (const [sha256, s] of stored)
       await trx.insertInto("stored_files").values({ sha256, size: s.size, storage: storage.kind, key: s.key }).onConflict((oc) => oc.column("sha256").doNothing()).execute();
     const full = { ...report, ignored: input.ignored };

@@ -27,6 +27,10 @@ describe("presets", () => {
     const t = run(s, { type: "layer/update", presetId: "ashfall-copy", channelId: "blade", index: 0, patch: { color: "#00ff00" } });
     expect(blade(t, "ashfall")[0]).toMatchObject({ color: "#ff4a1c" });
     expect(blade(t, "ashfall-copy")[0]).toMatchObject({ color: "#00ff00" });
+    // The copy's layers are new layers, with fresh ids.
+    const original = new Set(blade(s, "ashfall").map((l) => l.id));
+    for (const l of blade(s, "ashfall-copy")) expect(original.has(l.id)).toBe(false);
+    expect(validate(s.config).filter((d) => d.code === "duplicate-layer-id")).toEqual([]);
   });
 
   it("renames, with consecutive keystrokes as one undo step", () => {
@@ -74,6 +78,23 @@ describe("layers", () => {
     // A new mirror points at another channel, never at its own.
     expect(layers.at(-1)).toMatchObject({ kind: "mirror", channelId: "blade" });
     expect(configSchema.safeParse(s.config).success).toBe(true);
+    // Each new layer has a fresh id of its own; the layers that were there keep theirs.
+    const ids = layers.map((l) => l.id);
+    expect(new Set(ids).size).toBe(ids.length);
+    for (const id of ids.slice(-LAYER_KINDS.length)) expect(id).toMatch(/^l-[0-9a-z]{6}$/);
+    expect(ids.slice(0, -LAYER_KINDS.length)).toEqual(demoConfig().presets[0].looks.chamber.layers.map((l) => l.id));
+  });
+
+  it("keeps a layer's id through moves, toggles and updates (an update cannot change it)", () => {
+    const s0 = initEditor(demoConfig());
+    const id0 = blade(s0)[0].id;
+    const s = run(
+      s0,
+      { type: "layer/move", presetId: "ashfall", channelId: "blade", from: 0, to: 3 },
+      { type: "layer/toggle", presetId: "ashfall", channelId: "blade", index: 3 },
+      { type: "layer/update", presetId: "ashfall", channelId: "blade", index: 3, patch: { opacity: 0.4, id: "l-hijack" } },
+    );
+    expect(blade(s)[3]).toMatchObject({ id: id0, kind: "fill", enabled: false, opacity: 0.4 });
   });
 
   it("ignores a layer for a channel the rig does not have", () => {
@@ -121,8 +142,12 @@ describe("looks across presets and channels", () => {
       ],
     });
     const src = s.config.presets[0].looks.crystal;
-    expect(s.config.presets[1].looks.crystal).toEqual(src);
-    expect(s.config.presets[0].looks.chamber).toEqual(src);
+    // The copies are new layers: the same content under fresh ids.
+    const bare = (look: { layers: { id: string }[] }) => look.layers.map(({ id: _, ...l }) => l);
+    expect(bare(s.config.presets[1].looks.crystal)).toEqual(bare(src));
+    expect(bare(s.config.presets[0].looks.chamber)).toEqual(bare(src));
+    const allIds = [src, s.config.presets[1].looks.crystal, s.config.presets[0].looks.chamber].flatMap((l) => l.layers.map((x) => x.id));
+    expect(new Set(allIds).size).toBe(allIds.length);
     expect(s.config.presets[1].looks.crystal).not.toBe(src);
     expect(s.past).toHaveLength(1);
   });

@@ -1,6 +1,8 @@
 // The look editor's state as plain data: the draft config, what was last saved, and an undo/redo
 // history. Every edit is an action through one reducer, so the page, the keyboard shortcuts and
-// the tests drive the same code. Pure: no React, no fetch.
+// the tests drive the same code. No React, no fetch; the one thing not repeatable is a new
+// layer's id, which is fresh (random) for every layer the editor makes, added or copied.
+import { freshLayerId } from "~/lib/config/layer-ids";
 import { newLayer } from "~/lib/config/layers";
 import type { Config, Layer, LayerKind, Look, Preset } from "~/lib/config/schema";
 
@@ -99,6 +101,25 @@ export function layerForChannel(config: Config, channelId: string, kind: LayerKi
   return newLayer(kind);
 }
 
+/** A copy of a look whose layers are new layers: each gets a fresh id. */
+export function copiedLook(look: Look): Look {
+  const taken = new Set<string>();
+  return {
+    ...structuredClone(look),
+    layers: look.layers.map((l) => {
+      const id = freshLayerId(taken);
+      taken.add(id);
+      return { ...structuredClone(l), id };
+    }),
+  };
+}
+
+/** `layer` with an id no other layer of `layers` holds (a fresh one if its own is taken). */
+function withFreeId(layer: Layer, layers: readonly Layer[]): Layer {
+  const taken = new Set(layers.map((l) => l.id));
+  return taken.has(layer.id) ? { ...layer, id: freshLayerId(taken) } : layer;
+}
+
 function withPresets(config: Config, presets: Preset[]): Config {
   return { ...config, presets };
 }
@@ -165,7 +186,8 @@ function step(s: EditorState, a: EditorAction): EditorState {
       if (i < 0) return s;
       const src = c.presets[i];
       const id = uniqueId(`${src.id.slice(0, 40)}-copy`, c.presets.map((p) => p.id));
-      const copy: Preset = { ...structuredClone(src), id, name: `${src.name} (copy)`.slice(0, 60) };
+      const looks = Object.fromEntries(Object.entries(src.looks).map(([k, look]) => [k, copiedLook(look)]));
+      const copy: Preset = { ...structuredClone(src), id, name: `${src.name} (copy)`.slice(0, 60), looks };
       const presets = c.presets.slice();
       presets.splice(i + 1, 0, copy);
       return commit(s, withPresets(c, presets), null, { selectedPresetId: id });
@@ -188,7 +210,7 @@ function step(s: EditorState, a: EditorAction): EditorState {
       return commit(s, mapPreset(c, a.presetId, (p) => (p.fontId === a.fontId ? p : { ...p, fontId: a.fontId })));
     case "layer/add":
       if (!c.rig.channels.some((ch) => ch.id === a.channelId)) return s;
-      return commit(s, mapLayers(c, a.presetId, a.channelId, (layers) => [...layers, layerForChannel(c, a.channelId, a.kind)]));
+      return commit(s, mapLayers(c, a.presetId, a.channelId, (layers) => [...layers, withFreeId(layerForChannel(c, a.channelId, a.kind), layers)]));
     case "layer/remove":
       return commit(
         s,
@@ -213,9 +235,9 @@ function step(s: EditorState, a: EditorAction): EditorState {
         s,
         mapLayers(c, a.presetId, a.channelId, (layers) => {
           const l = layers[a.index];
-          // The kind is what the other fields mean; an update never changes it.
+          // The kind is what the other fields mean, the id what diffs follow; an update changes neither.
           if (!l || ("kind" in a.patch && a.patch.kind !== l.kind)) return null;
-          layers[a.index] = { ...l, ...a.patch } as Layer;
+          layers[a.index] = { ...l, ...a.patch, id: l.id } as Layer;
           return layers;
         }),
         a.key ?? null,
@@ -227,7 +249,7 @@ function step(s: EditorState, a: EditorAction): EditorState {
       for (const t of a.to) {
         if (t.presetId === a.from.presetId && t.channelId === a.from.channelId) continue;
         if (!c.rig.channels.some((ch) => ch.id === t.channelId)) continue;
-        next = mapPreset(next, t.presetId, (p) => ({ ...p, looks: { ...p.looks, [t.channelId]: structuredClone(from) } })) ?? next;
+        next = mapPreset(next, t.presetId, (p) => ({ ...p, looks: { ...p.looks, [t.channelId]: copiedLook(from) } })) ?? next;
       }
       return next === c ? s : commit(s, next);
     }

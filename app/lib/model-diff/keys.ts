@@ -1,11 +1,12 @@
 // Stable keys for the items of the config's lists, so diffs and merges follow items, not
-// positions. Presets, channels, buttons and fonts have an `id`. Layers and controls have none
-// yet (issue 13 gives layers ids): they are keyed by a hash of their content, so a reorder of
-// distinct layers reads as a move. An edited layer has a new hash, so a second pass pairs each
-// unmatched layer with an unmatched one of the same kind (controls: the same event) on the
-// other side, in order, and gives it that layer's key: the edit then reads as a change of that
-// layer's fields instead of a removal and an addition.
-// Identical layers in one look are told apart by occurrence ("hash#2").
+// positions. Presets, channels, buttons, fonts and (since "hiltbench.config/2") layers have an
+// `id`, and a list whose items all carry distinct ids is keyed by them. Controls have none:
+// they are keyed by a hash of their content, so a reorder reads as a move. An edited control
+// has a new hash, so a second pass pairs each unmatched control with an unmatched one of the
+// same event (layers: the same kind) on the other side, in order, and gives it that item's key:
+// the edit then reads as a change of its fields instead of a removal and an addition.
+// Identical items are told apart by occurrence ("hash#2"). The content keys also stand in for a
+// list of layers without ids, or with an id twice (the validator reports that; a diff still reads).
 
 type Json = unknown;
 
@@ -38,9 +39,22 @@ export type ListKind = "id" | "content" | "none";
 /** What kind of list sits at a path of property names (array indexes left out). */
 export function listKind(props: readonly string[], items: readonly unknown[]): ListKind {
   const last = props[props.length - 1];
-  if (last === "layers" || last === "controls") return "content";
-  if (items.length > 0 && items.every((x) => x && typeof x === "object" && typeof (x as { id?: unknown }).id === "string")) return "id";
-  return "none";
+  if (last === "controls") return "content";
+  const ids = items.map((x) => (x && typeof x === "object" ? (x as { id?: unknown }).id : undefined));
+  if (items.length > 0 && ids.every((id) => typeof id === "string")) return new Set(ids).size === ids.length ? "id" : "content";
+  return last === "layers" ? "content" : "none";
+}
+
+/**
+ * The kind for one list seen from several sides (a and b; base, mine and theirs): keyed by id
+ * only when every side's items carry distinct ids, since all sides must be keyed alike.
+ */
+export function listKindOf(props: readonly string[], sides: readonly (readonly unknown[])[]): ListKind {
+  const kinds = sides.filter((xs) => xs.length > 0).map((xs) => listKind(props, xs));
+  if (kinds.length === 0) return listKind(props, []);
+  if (kinds.every((k) => k === "id")) return "id";
+  if (kinds.every((k) => k === "none")) return "none";
+  return "content";
 }
 
 /** What decides "the same sort of item" when pairing edited content-keyed items. */
@@ -100,7 +114,7 @@ export function pairedKeys(ref: readonly unknown[], refKeys: readonly string[], 
 
 /** Keys for a list on both sides of a comparison. */
 export function keysFor(props: readonly string[], a: readonly unknown[], b: readonly unknown[]): { kind: ListKind; a: string[]; b: string[] } | null {
-  const kind = listKind(props, a.length ? a : b);
+  const kind = listKindOf(props, [a, b]);
   if (kind === "none") return null;
   if (kind === "id") {
     const ids = (xs: readonly unknown[]) => xs.map((x) => `id:${(x as { id: string }).id}`);

@@ -1,11 +1,11 @@
 // Three-way merge on the model: base (what the person started from), mine (their edits) and
-// theirs (what was saved meanwhile). Lists with stable keys (ids; layers and controls by the
-// content keys of keys.ts) merge item by item, their order through node-diff3 on the key
+// theirs (what was saved meanwhile). Lists with stable keys (ids, layers' included; controls by
+// the content keys of keys.ts) merge item by item, their order through node-diff3 on the key
 // sequences; plain records merge field by field. Where both sides changed the same value
 // differently, that is a conflict: it is listed with both values, and `choices` (path → side)
 // decides it. An undecided conflict keeps theirs until the person picks.
 import { diff3Merge } from "node-diff3";
-import { contentKeys, listKind, pairedKeys, stableJson } from "./keys";
+import { contentKeys, listKindOf, pairedKeys, stableJson } from "./keys";
 import { channelName, fieldLabel, itemCrumb, valueText } from "./words";
 
 export type Side = "mine" | "theirs";
@@ -58,7 +58,7 @@ function mergeValue(b: unknown, m: unknown, t: unknown, props: string[], path: s
     return out;
   }
   if (Array.isArray(b) && Array.isArray(m) && Array.isArray(t)) {
-    const kind = listKind(props, b.length ? b : m.length ? m : t);
+    const kind = listKindOf(props, [b, m, t]);
     if (kind !== "none") return mergeList(b, m, t, kind, props, path, where, ctx);
   }
   const inItem = props.length > 0 && prop.startsWith("[");

@@ -94,7 +94,7 @@ describe("model diff in words", () => {
 
   it("reads a drift layer's speed with its unit, and an edit of a layer among reordered ones as an edit", () => {
     const a = demoConfig();
-    a.presets[0].looks.chamber.layers.splice(1, 0, { kind: "drift", enabled: true, opacity: 1, blend: "normal", when: "always", colors: ["#ff0000", "#0000ff"], bandPixels: 3, speedPixelsPerSecond: 12, direction: "to-tip" });
+    a.presets[0].looks.chamber.layers.splice(1, 0, { id: "l-embers", kind: "drift", enabled: true, opacity: 1, blend: "normal", when: "always", colors: ["#ff0000", "#0000ff"], bandPixels: 3, speedPixelsPerSecond: 12, direction: "to-tip" });
     const b = structuredClone(a);
     (b.presets[0].looks.chamber.layers[1] as Layer & { speedPixelsPerSecond: number }).speedPixelsPerSecond = 8;
     expect(texts(a, b)).toEqual(["Preset Ashfall › Chamber window › layer 2 (drift): speed 12 → 8 px/s"]);
@@ -147,7 +147,75 @@ describe("model diff in words", () => {
   });
 });
 
+describe("layers keyed by their ids", () => {
+  it("property: moving one layer of a look reads as exactly one move, even among identical layers", () => {
+    fc.assert(
+      fc.property(fc.nat(9), fc.nat(9), fc.boolean(), (from, to, twins) => {
+        const a = demoConfig();
+        const layers = a.presets[0].looks.blade.layers;
+        fc.pre(from < layers.length && to < layers.length && from !== to);
+        // Identical content under different ids: content hashes could not tell these apart.
+        if (twins) layers.forEach((l, i) => (layers[i] = { ...layers[0], id: l.id }));
+        const b = structuredClone(a);
+        const bl = b.presets[0].looks.blade.layers;
+        bl.splice(to, 0, bl.splice(from, 1)[0]);
+        const changes = diffModels(a, b).changes;
+        expect(changes.map((c) => c.kind)).toEqual(["moved"]);
+        expect(applyDelta(a, modelDelta(a, b))).toEqual(b);
+      }),
+    );
+  });
+
+  it("reads an insert as one addition and an edit of a moved layer as a change of its field", () => {
+    const a = demoConfig();
+    const b = structuredClone(a);
+    const bl = b.presets[0].looks.blade.layers;
+    bl.unshift({ id: "l-embers", kind: "drift", enabled: true, opacity: 1, blend: "normal", when: "always", colors: ["#ff0000", "#0000ff"], bandPixels: 3, speedPixelsPerSecond: 12, direction: "to-tip" });
+    const shimmer = bl.findIndex((l) => l.kind === "shimmer");
+    (bl[shimmer] as Layer & { rateHz: number }).rateHz = 9;
+    expect(texts(a, b)).toEqual(["Preset Ashfall › Main blade: layer 1 (drift) added", "Preset Ashfall › Main blade › layer 3 (shimmer): rate 16 → 9 Hz"]);
+  });
+
+  it("reads two layers that swapped content as two edits, not a move (the ids stayed put)", () => {
+    const a = demoConfig();
+    const b = structuredClone(a);
+    const [x, y] = b.presets[0].looks.chamber.layers;
+    b.presets[0].looks.chamber.layers[0] = { ...y, id: x.id };
+    b.presets[0].looks.chamber.layers[1] = { ...x, id: y.id };
+    expect(diffModels(a, b).changes.every((c) => c.kind === "changed")).toBe(true);
+    expect(applyDelta(a, modelDelta(a, b))).toEqual(b);
+  });
+
+  it("falls back to content keys for layers without ids or with an id twice", () => {
+    const a = demoConfig();
+    const b = structuredClone(a);
+    const bl = b.presets[0].looks.blade.layers;
+    bl[1].id = bl[0].id;
+    bl.splice(0, 0, bl.splice(4, 1)[0]);
+    expect(applyDelta(a, modelDelta(a, b))).toEqual(b);
+    expect(merge3(a, a, b)).toEqual({ merged: b, conflicts: [] });
+  });
+});
+
 describe("three-way merge", () => {
+  it("merges a layer edited on one side and moved on the other, and keeps both sides' new layers", () => {
+    const base = demoConfig();
+    const mine = structuredClone(base);
+    const theirs = structuredClone(base);
+    const id = base.presets[0].looks.blade.layers[1].id;
+    (mine.presets[0].looks.blade.layers[1] as Layer & { amount: number }).amount = 0.3;
+    mine.presets[0].looks.blade.layers.push({ ...base.presets[0].looks.blade.layers[0], id: "l-mine00" });
+    const tl = theirs.presets[0].looks.blade.layers;
+    tl.splice(5, 0, tl.splice(1, 1)[0]);
+    tl.push({ ...base.presets[0].looks.blade.layers[0], id: "l-their0" });
+    const { merged, conflicts } = merge3(base, mine, theirs);
+    expect(conflicts).toEqual([]);
+    const ml = merged.presets[0].looks.blade.layers;
+    expect(ml.findIndex((l) => l.id === id)).toBe(5);
+    expect(ml.find((l) => l.id === id)).toMatchObject({ kind: "shimmer", amount: 0.3 });
+    expect(ml.slice(-2).map((l) => l.id).sort()).toEqual(["l-mine00", "l-their0"]);
+  });
+
   it("property: a merge with an empty side gives the other side", () => {
     fc.assert(
       fc.property(edits, edits, (eb, ex) => {

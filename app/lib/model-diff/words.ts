@@ -3,6 +3,7 @@
 
 const FIELDS: Record<string, [label: string, unit?: string]> = {
   format: ["format"],
+  id: ["id"],
   profile: ["board profile"],
   dataPins: ["LED data pins"],
   inputPins: ["button pins"],

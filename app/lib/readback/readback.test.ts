@@ -1,6 +1,8 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { demoConfig, demoConfigSmall } from "../config/demo";
+import { fillLayerIds } from "../config/layer-ids";
+import { newLayer } from "../config/layers";
 import {
   BLEND_MODES, CHANNEL_ROLES, COLOR_ORDERS, CONFIG_FORMAT, CONTROL_EVENTS, CUES, EASINGS, GESTURES, LASTING_EVENTS, MOMENT_EVENTS, MOTIONS,
   configSchema, type Config, type Layer,
@@ -113,6 +115,22 @@ describe.each(FORMS)("readHeader, generic-header v$version", ({ entry, header })
     expect(r.errors[0].message).toMatch(/^rig\.channels\.2\.pixels: /);
   });
 
+  it("gives layers the derived ids a header cannot carry: render → read back → render is the same bytes", () => {
+    for (const form of FORMS) {
+      // Layers made in the editor have fresh random ids; the header does not print them.
+      const c = demoConfig();
+      c.presets[0].looks.blade.layers.splice(1, 0, newLayer("drift"));
+      const first = form.header(c);
+      const back = readHeader(first);
+      expect(back.errors).toEqual([]);
+      expect(form.header(back.config!)).toBe(first);
+      // Read twice, the same ids; and they are the derived ones (as a "hiltbench.config/1" upgrade gives).
+      expect(readHeader(first).config).toStrictEqual(back.config);
+      expect(back.config!.presets[0].looks.blade.layers[1].id).toMatch(/^l-[0-9a-z]{6}$/);
+      expect(back.config!.presets[0].looks.blade.layers[1].id).not.toBe(c.presets[0].looks.blade.layers[1].id);
+    }
+  });
+
   it("reports broken syntax, missing tables and garbage with a position", () => {
     expect(readHeader("static const hb_board_t hb_board = { .profile = \"x\" ").errors[0]).toMatchObject({ line: 1, message: "this '{' is never closed" });
     expect(readHeader("").errors[0].message).toBe("'hb_board' is missing");
@@ -212,7 +230,8 @@ const configArb: fc.Arbitrary<Config> = fc.record({
     }),
     { maxLength: 4 },
   ),
-}) as fc.Arbitrary<Config>;
+  // Layers made without ids get the derived ones, which is what a read-back gives them.
+}).map((c) => fillLayerIds(c)) as fc.Arbitrary<Config>;
 
 describe("readHeader on random valid configs", () => {
   it("reads every rendered header back to an equal model, in either version's form", () => {

@@ -3,6 +3,7 @@
 // `[3] = { .field = value }`), not by line order, so reordered lines and added
 // comments are fine; derived fields (counts, indices) are ignored; the result is checked with
 // the model's own schema, and every problem points at a line of the file.
+import { fillLayerIds } from "../config/layer-ids";
 import { CONFIG_FORMAT, configSchema, type Config } from "../config/schema";
 import { CReadError, readInitializers, type CItem, type CVal, type Pos } from "./cread";
 import { BOARD, BUTTON, CHANNEL, CONTROL, FONT, KIND_FIELDS, LAYER, LOOK, POWER, PRESET, snake, snakeUpper, SPEAKER, STOP, type Kind, type Spec } from "./spec";
@@ -276,7 +277,10 @@ export function readHeader(text: string): { config: Config | null; errors: ReadE
   controls.forEach((row) => row.input === "button" && same(row, "$button", indexIn(buttons, row.buttonId), "the index of its button"));
   }
   if (r.errors.length) return { config: null, errors: sortErrors(r.errors) };
-  const parsed = configSchema.safeParse(candidate);
+  // A header carries no layer ids: each layer gets the id derived from its preset, channel and
+  // position (the same rule that upgrades a "hiltbench.config/1" document), so reading the same
+  // header twice gives the same config, and render → read back → render the same bytes.
+  const parsed = configSchema.safeParse(fillLayerIds(candidate));
   if (parsed.success) return { config: parsed.data, errors: [] };
   for (const issue of parsed.error.issues) {
     const path = issue.path.map(String);

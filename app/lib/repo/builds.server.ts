@@ -3,6 +3,7 @@
 import { isInt4 } from "../input/edges";
 import { sql, type Kysely } from "kysely";
 import type { Config } from "../config/schema";
+import { upgradeStored } from "../config/upgrade";
 import { BUILD_STATUSES, type BuildStatus, type Database } from "../db/types";
 
 type Db = Kysely<Database>;
@@ -63,12 +64,14 @@ export async function listBuilds(db: Db, scope: Scope, query: BuildQuery) {
 
 export async function getBuild(db: Db, scope: Scope, id: string) {
   if (!isUuid(id)) return undefined;
-  return scoped(db, scope)
+  const row = await scoped(db, scope)
     .leftJoin("users as c", "c.id", "b.client_user_id")
     .selectAll("b")
     .select(["c.email as client_email", "c.display_name as client_display_name"])
     .where("b.id", "=", id)
     .executeTakeFirst();
+  // A config stored in an older form is read in the current one (deterministically, so renders stay stable).
+  return row && { ...row, config: upgradeStored(row.config) };
 }
 
 export type BuildMeta = { name: string; clientName: string; clientUserId: string | null; hiltNotes: string; status: BuildStatus };

@@ -2,6 +2,7 @@
 // and restored (a restore is a new save of the old content through saveConfig).
 import { sql, type Kysely } from "kysely";
 import type { Database } from "../db/types";
+import { upgradeStored } from "../config/upgrade";
 import { saveConfig } from "./builds.server";
 
 type Db = Kysely<Database>;
@@ -69,7 +70,9 @@ export async function revisionAuthors(db: Db, workshopId: string, buildId: strin
 }
 
 export async function getRevision(db: Db, workshopId: string, buildId: string, number: number) {
-  return base(db, workshopId, buildId).select([...summaryColumns, "r.config"]).where("r.number", "=", number).executeTakeFirst();
+  const row = await base(db, workshopId, buildId).select([...summaryColumns, "r.config"]).where("r.number", "=", number).executeTakeFirst();
+  // Revisions are never rewritten: one saved in an older form is upgraded as it is read.
+  return row && { ...row, config: upgradeStored(row.config) };
 }
 export type RevisionWithConfig = NonNullable<Awaited<ReturnType<typeof getRevision>>>;
 

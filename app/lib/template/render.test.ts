@@ -117,7 +117,7 @@ describe("render errors", () => {
     let called = false;
     Object.defineProperty(cfg, "valueOf", { value: () => ((called = true), 1), enumerable: false });
     const c = compileTemplate("@( config.format )@");
-    expect(c.ok && renderTemplate(c.template, cfg as never, META)).toEqual({ ok: true, output: "hiltbench.config/1" });
+    expect(c.ok && renderTemplate(c.template, cfg as never, META)).toEqual({ ok: true, output: "hiltbench.config/2" });
     expect(called).toBe(false);
   });
 });

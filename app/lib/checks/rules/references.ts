@@ -40,6 +40,13 @@ export function referenceRules(ctx: RuleContext): void {
 
     const edges = new Map<string, { target: string; path: string }[]>();
     for (const [channelId, look] of Object.entries(p.looks)) {
+      // Layer ids are what diffs and merges follow; two alike in one look would be one layer to them.
+      const layerIds = new Map<string, number>();
+      look.layers.forEach((layer, li) => {
+        const first = layerIds.get(layer.id);
+        if (first === undefined) layerIds.set(layer.id, li);
+        else sink.error("duplicate-layer-id", `${layerPath(pi, channelId, li)}.id`, `Layer id "${layer.id}" is used twice in the ${channelId} look of preset "${p.name}" (also layer ${first + 1}).`, "Give each layer of a look its own id (the look editor makes one for every layer it adds).");
+      });
       if (!ctx.channels.has(channelId)) {
         sink.error("unknown-look-channel", lookPath(pi, channelId), `Preset "${p.name}" has a look for "${channelId}", which is not a channel of the rig.`, "Rename the look to a channel id or remove it.");
         continue;
