@@ -76,7 +76,7 @@ export async function run(): Promise<void> {
   for (let i = 0; i < 100; i += 10) c2.presets[i].name += " (revised)";
   c2.presets.splice(3, 0, c2.presets.splice(40, 1)[0]);
   c2.presets[7].looks.blade.layers.pop();
-  c2.presets[9].looks.chamber.layers.push(structuredClone(c2.presets[9].looks.chamber.layers[0]));
+  c2.presets[9].looks.chamber.layers.push({ ...structuredClone(c2.presets[9].looks.chamber.layers[0]), id: "l-bench1" }); // a copy, with its own id as the editor gives it
   for (let i = 0; i < 5; i++) {
     diffModels(c1, c2);
     validateConfig(c2);
