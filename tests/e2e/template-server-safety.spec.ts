@@ -57,10 +57,12 @@ test.describe("a runaway template does not hold up the server", () => {
     const runawayMs = performance.now() - t0;
     console.log(`healthz during a runaway render: ${health.map((h) => `${h.ms.toFixed(0)} ms`).join(", ")}; the runaway answered after ${runawayMs.toFixed(0)} ms`);
 
-    for (const h of health) {
-      expect(h.status).toBe(200);
-      expect(h.ms).toBeLessThan(450);
-    }
+    // A render on the event loop would hold the first probe until it stopped, and the runaway's
+    // answer would leave with it: the probes then end after the runaway, not inside it. In the
+    // workers all three end inside it, and the quickest answers at once. (The first probe has
+    // met 300–490 ms on a busy machine, so no single probe carries the bound.)
+    for (const h of health) expect(h.status).toBe(200);
+    expect(Math.min(...health.map((h) => h.ms))).toBeLessThan(300);
     expect(health.reduce((s, h) => s + h.ms, 0) + 50).toBeLessThan(runawayMs);
     expect(answered.status()).toBe(422);
     const errors = (await answered.json()).errors;
