@@ -51,6 +51,8 @@ export default [
     route("builds/:buildId/diff", "routes/api.builds.$buildId.diff.ts"),
     route("builds/:buildId/fonts/:fontId/files", "routes/api.builds.$buildId.fonts.$fontId.files.ts"),
     route("builds/:buildId/bundle", "routes/api.builds.$buildId.bundle.ts"),
+    // Unknown /api addresses answer a JSON 404 (keep last in this list).
+    route("*", "routes/api.not-found.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

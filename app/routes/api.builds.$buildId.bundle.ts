@@ -24,13 +24,13 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const v = await requireViewer(request, "view:builds");
     const b = await loadBuildFor(v, params.buildId);
     const parsed = query.safeParse(Object.fromEntries(new URL(request.url).searchParams));
-    if (!parsed.success) fail(400, `Bad query: ${parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
+    if (!parsed.success) fail(400, `Bad query: ${parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`, { field: String(parsed.error.issues[0]?.path[0] ?? "") });
     const q = parsed.data;
     const plan = await bundleFor(v, b, { template: q.template ?? null, mode: q.names, cardGb: q.card });
     const files = plan.entries.map((e) => ({ path: e.path, size: e.size, sha256: e.sha256, stored: e.kind === "stored" }));
     const errors = plan.findings.filter((f) => f.severity === "error");
     if (q.check) return json({ name: plan.name, totalBytes: plan.totalBytes, files, findings: plan.findings });
-    if (errors.length) return json({ error: `The card cannot be built: ${errors.map((e) => e.message).join(" ")}`, findings: plan.findings }, { status: 422 });
+    if (errors.length) fail(422, `The card cannot be built: ${errors.map((e) => e.message).join(" ")}`, { findings: plan.findings });
     const body = zipBundle(plan, storage());
     return new Response(Readable.toWeb(body) as ReadableStream, {
       headers: { "Content-Type": "application/zip", "Content-Disposition": `attachment; filename="${plan.name}"`, "Cache-Control": "no-store" },

@@ -31,8 +31,8 @@ export function action({ request, params }: Route.ActionArgs) {
     const note = readMessage(body && typeof body === "object" ? (body as { message?: unknown }).message : undefined);
     if (!note.ok) fail(400, note.error);
     const r = await storeCheckedConfig(v, b.id, config, version, { message: note.message });
-    if (r.kind === "invalid") return json({ error: r.message, diagnostics: r.diagnostics }, { status: 422 });
-    if (r.kind === "stale") return json({ error: r.message, currentVersion: r.currentVersion }, { status: 409 });
+    if (r.kind === "invalid") fail(422, r.message, { diagnostics: r.diagnostics });
+    if (r.kind === "stale") fail(409, r.message, { currentVersion: r.currentVersion });
     const rev = await getRevisionFor(v, b.id, r.version);
     return json({
       version: r.version,

@@ -18,7 +18,7 @@ export function action({ request, params }: Route.ActionArgs) {
       const r = await uploadFont(v, b.id, params.fontId, request);
       return json({ status: r.report.status, configVersion: r.configVersion, report: r.report });
     } catch (e) {
-      if (e instanceof UploadRefused) return json({ error: e.message }, { status: e.status });
+      if (e instanceof UploadRefused) fail(e.status, e.message);
       throw e;
     }
   });

@@ -3,7 +3,7 @@
 import { z } from "zod";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { chooseTemplate, renderBuildOrSource } from "~/lib/rendering/service.server";
+import { chooseTemplate, renderBuildOrSource, renderFailedMessage } from "~/lib/rendering/service.server";
 import { readJsonBody } from "~/lib/web/body.server";
 import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
 import { INT4_MAX } from "~/lib/input/edges";
@@ -48,8 +48,8 @@ export function action({ request }: Route.ActionArgs) {
     const build = body.data.buildId !== undefined ? await loadBuildFor(v, body.data.buildId) : null;
     const t = await chooseTemplate(v, ref.data, build ?? undefined);
     const r = await renderBuildOrSource(v, build ? { build } : { config: body.data.config }, t);
-    if (r.kind === "bad-config") return json({ error: r.message, errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
-    if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
+    if (r.kind === "bad-config") fail(422, r.message, { errors: r.errors, total: r.total, kinds: r.kinds });
+    if (r.kind === "failed") fail(422, renderFailedMessage(r.total), { errors: r.errors, total: r.total, kinds: r.kinds });
     return text(r.output, { headers: { "X-Template": `${t.name}@${t.version}` } });
   });
 }
