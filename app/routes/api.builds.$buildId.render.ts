@@ -8,7 +8,7 @@ import { chooseTemplateForBuild, renderBuildOrSource, renderFailedMessage, resol
 import { can } from "~/lib/auth/permissions";
 import { renderRevision, revisionOf, templateForRevision } from "~/lib/revisions/compare.server";
 import { readRevisionNumber } from "~/lib/revisions/params";
-import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
+import { apiAnswer, fail, text } from "~/lib/web/http.server";
 import { INT4_MAX, int4From } from "~/lib/input/edges";
 import type { Route } from "./+types/api.builds.$buildId.render";
 

@@ -5,7 +5,7 @@ import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { chooseTemplate, renderBuildOrSource, renderFailedMessage } from "~/lib/rendering/service.server";
 import { readJsonBody } from "~/lib/web/body.server";
-import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
+import { apiAnswer, fail, text } from "~/lib/web/http.server";
 import { INT4_MAX } from "~/lib/input/edges";
 import type { Route } from "./+types/api.render";
 
