@@ -3,6 +3,7 @@
 // `apiAnswer` / `textAnswer` turn it into a JSON or plain-text answer for scripts and downloads.
 // Every API error has one shape, `ApiErrorBody` (documented once in app/lib/api-doc, decision 020).
 import { data } from "react-router";
+import type { z } from "zod";
 import { DATABASE_DOWN_MESSAGE, isDatabaseUnavailable } from "../db/unavailable";
 
 /**
@@ -41,6 +42,15 @@ export function json(body: unknown, init: ResponseInit = {}): Response {
   headers.set("Content-Type", "application/json; charset=utf-8");
   headers.set("Cache-Control", "no-store");
   return new Response(JSON.stringify(body), { ...init, headers });
+}
+
+/**
+ * A JSON answer whose body must have the documented shape: `schema` is the zod schema the API
+ * document shows for this answer (app/lib/api-doc/shapes.ts), checked by the compiler here and
+ * against the document in the tests.
+ */
+export function jsonAs<S extends z.ZodType>(_schema: S, body: z.input<S>, init: ResponseInit = {}): Response {
+  return json(body, init);
 }
 
 /** Plain text (a patch, a rendered header) that is never cached. */
