@@ -51,6 +51,11 @@ export default [
     route("builds/:buildId/diff", "routes/api.builds.$buildId.diff.ts"),
     route("builds/:buildId/fonts/:fontId/files", "routes/api.builds.$buildId.fonts.$fontId.files.ts"),
     route("builds/:buildId/bundle", "routes/api.builds.$buildId.bundle.ts"),
+    // The API's own reference, public: the OpenAPI document and a page drawn from it.
+    route("openapi.json", "routes/api.openapi-json.ts"),
+    route("docs", "routes/api.docs.tsx"),
+    // Unknown /api addresses answer a JSON 404 (keep last in this list).
+    route("*", "routes/api.not-found.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

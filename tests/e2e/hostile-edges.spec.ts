@@ -37,6 +37,7 @@ const ACTIONS: Action[] = [
   { route: "routes/api.render.ts", method: "POST", path: () => "/api/render", json: { config: {}, template: { builtin: "generic-header" } } },
   { route: "routes/api.builds.$buildId.config.ts", method: "PUT", path: (i) => `/api/builds/${i.build}/config`, json: { config: {}, version: 0 } },
   { route: "routes/api.builds.$buildId.render.ts", method: "POST", path: (i) => `/api/builds/${i.build}/render`, json: {} },
+  { route: "routes/api.not-found.ts", method: "POST", path: () => "/api/no-such-route", json: {} },
 ];
 
 const EVIL = "http://evil.test";

@@ -104,6 +104,12 @@ const CASES: Case[] = [
   // The development mailbox is open to anyone while it is served (HB_DEV_MAILBOX=1 in the e2e run); production answers 404.
   { route: "/dev/mailbox", method: "GET", path: () => "/dev/mailbox", expect: all("ok") },
   { route: "/dev/mailbox/:messageId", method: "GET", path: () => "/dev/mailbox/00000000-0000-4000-8000-000000000000", expect: all("404") },
+  // The API's reference is public: the OpenAPI document and the page drawn from it.
+  { route: "/api/openapi.json", method: "GET", path: () => "/api/openapi.json", expect: all("ok") },
+  { route: "/api/docs", method: "GET", path: () => "/api/docs", expect: all("ok") },
+  // An unknown API address: a JSON 404 for everyone, signed in or not.
+  { route: "/api/*", method: "GET", path: () => "/api/no/such/route", expect: all("404") },
+  { route: "/api/*", method: "POST", path: () => "/api/no-such-route", json: {}, expect: all("404") },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 
