@@ -26,6 +26,8 @@ export default [
       route("revisions", "routes/builds.$buildId.revisions.tsx"),
       route("compare", "routes/builds.$buildId.compare.tsx"),
       route("fonts", "routes/builds.$buildId.fonts.tsx"),
+      route("bundle", "routes/builds.$buildId.bundle.tsx"),
+      route("bundle/check", "routes/builds.$buildId.bundle.check.tsx"),
       route("reviews", "routes/builds.$buildId.reviews._index.tsx"),
       route("reviews/:requestId", "routes/builds.$buildId.reviews.$requestId.tsx"),
     ]),

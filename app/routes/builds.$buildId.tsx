@@ -33,6 +33,7 @@ const SECTIONS = [
   ["render", "Render"],
   ["revisions", "Revisions"],
   ["reviews", "Reviews"],
+  ["bundle", "Bundle"],
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {

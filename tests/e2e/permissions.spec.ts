@@ -93,6 +93,17 @@ const CASES: Case[] = [
   { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401" } },
   { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.harrier}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
   { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?names=9.9`, expect: { ...all("bad"), anonymous: "401" } },
+  // A chosen revision: staff and reviewers (clients see no revisions, decision 012).
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?revision=1&check=1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?revision=x`, expect: { ...all("bad"), anonymous: "401" } },
+  // The Bundle tab and Check a card: everyone who sees the build; a chosen revision only for those who see revisions.
+  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.harrier}/bundle?names=8.3&card=8`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
+  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle?revision=1`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle?card=none`, expect: { ...all("bad"), anonymous: "login" } },
+  { route: "/builds/:buildId/bundle/check", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle/check`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/bundle/check", method: "GET", path: (i) => `/builds/${i.harrier}/bundle/check`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
+  { route: "/builds/:buildId/bundle/check", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle/check?revision=1`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
   { route: "/builds/:buildId/reviews", method: "GET", path: (i) => `/builds/${i.kestrel}/reviews`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
   // No reviewer chosen: refused as bad input for those who may ask; nothing is requested.
   { route: "/builds/:buildId/reviews", method: "POST", path: (i) => `/builds/${i.kestrel}/reviews`, form: { intent: "request" }, expect: staff("bad", "403") },

@@ -200,7 +200,12 @@ export const fontUploadAnswer = z.strictObject({ status: z.enum(["received", "in
 
 export const bundlePlanAnswer = z.strictObject({
   name: z.string().meta({ description: "The zip's file name." }),
-  totalBytes: int(),
+  revision: int().meta({ description: "The revision the card is made from." }),
+  latest: z.boolean().meta({ description: "Whether that revision is the build's newest." }),
+  template: z.strictObject({ name: z.string(), version: int(), ref: z.string() }).meta({ description: "The template (and its version) the config was rendered with." }),
+  totalBytes: int().meta({ description: "The files' bytes." }),
+  cardUsedBytes: int().meta({ description: "What the files take on a FAT32 card, in whole clusters." }),
+  cardBytes: int().meta({ description: "The card's size in decimal bytes." }),
   files: z.array(z.strictObject({ path: z.string(), size: int(), sha256: z.string(), stored: z.boolean().meta({ description: "A font file from storage (true) or a text made for the card." }) })),
   findings: z.array(findingSchema),
 });

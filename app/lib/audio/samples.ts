@@ -2,6 +2,7 @@
 // through typed arrays where the bytes are aligned (the fast path) and byte by byte otherwise;
 // a sample split between two pieces is carried over. 8-bit samples are unsigned (silence 128),
 // wider ones signed, floats are full scale at ±1 (RIFF/WAVE specification).
+import { simd16, simdPeak32 } from "./simd16";
 import type { WavFormat } from "./types";
 
 export type SampleScanner = {
@@ -130,6 +131,22 @@ export function createSampleScanner(format: WavFormat): SampleScanner | null {
           if (v === 8388607 || v === -8388608) scanner.clipped++;
         }
       return;
+    }
+    if (kind === "i16" && simd16) {
+      // WebAssembly SIMD: extremes and full-scale count in one pass (simd16.ts).
+      const r = simd16(bytes, from, to);
+      if (r.lo < min) min = r.lo;
+      if (r.hi > max) max = r.hi;
+      scanner.clipped += r.clipped;
+      return;
+    }
+    if (kind === "f32" && simdPeak32) {
+      // Clean pieces (peak below full scale, no NaN) need nothing more; the rest take the careful pass below.
+      const p = simdPeak32(bytes, from, to);
+      if (p < 1) {
+        if (p > fpeak) fpeak = p;
+        return;
+      }
     }
     // Typed arrays need the byte offset aligned to the sample width; copy when it is not
     // (new Uint8Array(view) copies; a Node Buffer's slice would not).

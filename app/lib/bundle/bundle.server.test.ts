@@ -12,7 +12,7 @@ import { demoConfig } from "../config/demo";
 import { readZipDirectory } from "../fonts/zip.server";
 import { DiskStorage } from "../storage/disk.server";
 import { cardNames, sanitizeLong, sanitizeShort } from "./names";
-import { planBundle, type BundleInput } from "./plan";
+import { cardUsage, CLUSTER_BYTES, planBundle, type BundleInput } from "./plan";
 import { zipBundle } from "./zip.server";
 
 const work = mkdtempSync(path.join(tmpdir(), "hb-bundle-"));
@@ -53,6 +53,8 @@ describe("the card zip", () => {
       buildName: "Kestrel",
       clientName: "Client One",
       config,
+      label: "Kestrel, revision 1, template generic-header v3",
+      wiring: { svg: "<svg xmlns=\"http://www.w3.org/2000/svg\"/>\n", ok: true },
       rendered: { name: "kestrel-generic-header.h", text: "// config\n#define PRESETS 5\n" },
       readable: { name: "readable-config.txt", text: "Presets: Ashfall, Glasswind\n" },
       fonts: config.fonts.map((f) => ({ id: f.id, name: f.name, folder: f.folder, status: f.status, files: f.id === "ashfall" ? files : [] })),
@@ -78,6 +80,7 @@ describe("the card zip", () => {
       ["kestrel-generic-header.h", 8],
       ["readable-config.txt", 8],
       ["handoff.html", 8],
+      ["wiring.svg", 8],
       ["ashfall/clash-1.wav", 0],
       ["ashfall/clash-2.wav", 0],
       ["ashfall/hum.wav", 0],
@@ -87,7 +90,8 @@ describe("the card zip", () => {
     const zip = await JSZip.loadAsync(a);
     const manifest = await zip.file("MANIFEST.txt")!.async("string");
     const lines = manifest.trim().split("\n").slice(1);
-    expect(lines).toHaveLength(6);
+    expect(lines).toHaveLength(7);
+    expect(manifest.split("\n")[0]).toBe("# Kestrel, revision 1, template generic-header v3: every file of this card with its size in bytes and SHA-256.");
     for (const line of lines) {
       const [hash, size, name] = line.split("  ");
       const bytes = await zip.file(name)!.async("nodebuffer");
@@ -102,5 +106,18 @@ describe("the card zip", () => {
     const codes = plan.findings.map((f) => f.code);
     expect(codes).toContain("font-not-arrived");
     expect(plan.findings.find((f) => f.code === "card-too-small")!.message).toContain("holds 100,000");
+  });
+
+  it("counts whole 32 KiB clusters per file and folder, and card sizes in decimal bytes (1 GB = 10⁹, not 2³⁰)", async () => {
+    expect(CLUSTER_BYTES).toBe(32768);
+    expect(cardUsage([{ path: "a.h", size: 1 }, { path: "ash/hum.wav", size: 32769 }, { path: "ash/clash.wav", size: 0 }])).toBe(32768 + 65536 + 0 + 32768);
+    const i = await input();
+    // 1.05 × 10⁹ bytes fits in 2³⁰ = 1,073,741,824 but not in a 1 GB card as sold.
+    const big = { path: "huge.wav", size: 1_050_000_000, sha256: "0".repeat(64), key: "sha256/00/x" };
+    const plan = planBundle({ ...i, cardBytes: 1e9, fonts: [{ id: "ashfall", name: "Ashfall", folder: "ashfall", status: "received", files: [big] }] });
+    expect(plan.findings.find((f) => f.code === "card-too-small")!.message).toContain("a 1 GB card holds 1,000,000,000 bytes (decimal, as cards are sold)");
+    const near = planBundle({ ...i, cardBytes: 1.08e9, fonts: [{ id: "ashfall", name: "Ashfall", folder: "ashfall", status: "received", files: [big] }] });
+    expect(near.findings.map((f) => f.code)).toContain("card-nearly-full");
+    expect(near.findings.map((f) => f.code)).not.toContain("card-too-small");
   });
 });

@@ -142,6 +142,8 @@ export interface FontUploadsTable {
   /** The font report (app/lib/fonts/report.ts) as it was when the files were accepted. */
   report: ColumnType<unknown, string, string>;
   uploaded_by: string | null;
+  /** The revision this upload's save made (null only while the upload's transaction runs). */
+  revision: ColumnType<number | null, number | null | undefined, number | null>;
   created_at: Timestamp;
 }
 

@@ -90,6 +90,7 @@ export async function acceptUpload(db: Kysely<Database>, storage: FileStorage, i
       const first = saved.diagnostics.find((d) => d.severity === "error");
       throw new UploadRefused(`The build's config could not take this font: ${saved.message}${first ? ` First: ${first.message}` : ""}`, 422);
     }
+    await trx.updateTable("font_uploads").set({ revision: saved.version }).where("id", "=", upload.id).execute();
     return { report: full, configVersion: saved.version, uploadId: upload.id };
   });
 }

@@ -19,6 +19,21 @@ export async function latestUploads(db: Db, buildId: string) {
   return rows.filter((r) => !seen.has(r.font_id) && seen.add(r.font_id));
 }
 
+/** Each font's newest upload whose save made revision `n` or an earlier one. */
+async function uploadsAtRevision(db: Db, buildId: string, n: number) {
+  const rows = await db
+    .selectFrom("font_uploads")
+    .select(["id", "font_id"])
+    .where("build_id", "=", buildId)
+    .where("revision", "<=", n)
+    .orderBy("revision", "desc")
+    .orderBy("created_at", "desc")
+    .orderBy("id")
+    .execute();
+  const seen = new Set<string>();
+  return rows.filter((r) => !seen.has(r.font_id) && seen.add(r.font_id));
+}
+
 export async function filesOfUpload(db: Db, uploadId: string) {
   return db.selectFrom("font_files").selectAll().where("upload_id", "=", uploadId).orderBy("path").execute();
 }
@@ -55,9 +70,12 @@ export async function saveLayout(db: Db, workshopId: string, name: string, rules
     .execute();
 }
 
-/** The files of each font's newest upload, with where their bytes are (for the card bundle). */
-export async function latestFontFiles(db: Db, buildId: string) {
-  const latest = await latestUploads(db, buildId);
+/**
+ * The files of each font's newest upload, with where their bytes are (for the card bundle); with
+ * `atRevision`, the newest upload whose save made that revision or an earlier one.
+ */
+export async function latestFontFiles(db: Db, buildId: string, atRevision?: number) {
+  const latest = atRevision === undefined ? await latestUploads(db, buildId) : await uploadsAtRevision(db, buildId, atRevision);
   const out = new Map<string, { path: string; size: number; sha256: string; key: string }[]>();
   for (const u of latest) {
     const rows = await db

@@ -32,7 +32,8 @@ export class DiskStorage implements FileStorage {
   async get(key: string, range?: ByteRange): Promise<Readable> {
     const p = this.pathOf(key);
     await stat(p);
-    return createReadStream(p, range ? { start: range.start, end: range.end } : {});
+    // 1 MiB reads: a card bundle streams hundreds of MB, and 64 KiB pieces cost a third of its time in per-piece overhead (bench: bundle).
+    return createReadStream(p, { highWaterMark: 1024 * 1024, ...(range ? { start: range.start, end: range.end } : {}) });
   }
 
   async exists(key: string): Promise<boolean> {
