@@ -34,6 +34,8 @@ export default [
     route("templates", "routes/templates._index.tsx"),
     route("templates/reference", "routes/templates.reference.tsx"),
     route("templates/:templateId", "routes/templates.$templateId.tsx"),
+    route("library", "routes/library._index.tsx"),
+    route("library/:presetId", "routes/library.$presetId.tsx"),
   ]),
 
   ...prefix("api", [

@@ -36,6 +36,18 @@ describe.runIf(hasDatabase)("preset library (PostgreSQL)", () => {
     a = { workshopId: ws, userId: builder };
   });
 
+  it("the demo seed: two library presets, the Kestrel's Ashfall on v1 of two with a clean update waiting", async () => {
+    const list = await listLibrary(db, a.workshopId, { tag: "demo", page: 1, perPage: 20 });
+    expect(list.rows.map((r) => [r.name, r.latestVersion, r.buildNames])).toEqual([
+      ["Ashfall embers", 2, ["Kestrel"]],
+      ["Tidebreak swell", 1, ["Harrier"]],
+    ]);
+    const kestrel = await db.selectFrom("builds").select(["id", "config"]).where("name", "=", "Kestrel").executeTakeFirstOrThrow();
+    const { updates } = await updatesFor(db, a, kestrel);
+    expect(updates.map((u) => [u.presetId, u.from, u.to, u.conflicts.length])).toEqual([["ashfall", 1, 2, 0]]);
+    expect(updates[0].changes.map((c) => c.text).join("\n")).toMatch(/layer 2 \(drift\) added/);
+  });
+
   it("clients have no library permission; reviewers only read", () => {
     expect(PERMISSIONS.filter((p) => p.includes("library") && can("client", p))).toEqual([]);
     expect(PERMISSIONS.filter((p) => p.includes("library") && can("reviewer", p))).toEqual(["view:library"]);
@@ -47,7 +59,7 @@ describe.runIf(hasDatabase)("preset library (PostgreSQL)", () => {
     expect(one.status).toBe(201);
     const id = (one.body as { presetId: string }).presetId;
     const v2 = body("Stale test");
-    v2.tags = ["cool"];
+    v2.tags = ["frosty"];
     expect((await publish(db, a, { presetId: id, baseVersion: 1, body: v2, changelog: "Tagged" })).status).toBe(201);
     const before = await counts();
     const stale = await publish(db, a, { presetId: id, baseVersion: 1, body: v2, changelog: "Again" });
@@ -59,7 +71,7 @@ describe.runIf(hasDatabase)("preset library (PostgreSQL)", () => {
     expect((bad.body as { diagnostics: { code: string }[] }).diagnostics.some((d) => d.code === "invalid-color")).toBe(true);
     expect((await publish(db, a, { presetId: id, baseVersion: 2, body: v2, changelog: "  " })).status).toBe(422);
     expect(await counts()).toEqual(before);
-    const list = await listLibrary(db, a.workshopId, { tag: "cool", page: 1, perPage: 20 });
+    const list = await listLibrary(db, a.workshopId, { tag: "frosty", page: 1, perPage: 20 });
     expect(list.rows.map((r) => [r.name, r.latestVersion])).toEqual([["Stale test", 2]]);
   });
 

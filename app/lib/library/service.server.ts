@@ -214,3 +214,36 @@ export const getLibraryPresetFor = (v: Viewer, id: string) => repo.getLibraryPre
 export const getLibraryVersionFor = (v: Viewer, id: string, n: number) => repo.getLibraryVersion(appDb(), v.workshop.id, id, n);
 export const buildsUsingFor = (v: Viewer, id: string) => repo.buildsUsing(appDb(), v.workshop.id, id);
 export const deleteVersionFor = (v: Viewer, id: string, n: number) => repo.deleteLibraryVersion(appDb(), v.workshop.id, id, n);
+
+export type PanelData = {
+  origins: repo.Origin[];
+  updates: PresetUpdate[];
+  library: { id: string; name: string; latest: number | null; versions: number[] }[];
+};
+
+/** What the Looks page shows about the library: origins, updates available, presets to add. */
+export async function libraryPanelFor(v: Viewer, build: { id: string; config: Config }): Promise<PanelData> {
+  const db = appDb();
+  const a = actorOf(v);
+  const { origins, updates } = await updatesFor(db, a, build);
+  const rows = await repo.libraryVersionList(db, a.workshopId);
+  const byId = new Map<string, PanelData["library"][number]>();
+  for (const r of rows) {
+    const e = byId.get(r.id) ?? { id: r.id, name: r.name, latest: null, versions: [] };
+    e.versions.push(r.version);
+    e.latest = e.latest ?? r.version;
+    byId.set(r.id, e);
+  }
+  return { origins, updates, library: [...byId.values()] };
+}
+
+/** The build's presets whose library version is older than the newest (the overview's notice; no merge computed). */
+export async function outdatedPresetsFor(v: Viewer, build: { id: string; config: Config }) {
+  const origins = await repo.originsOf(appDb(), v.workshop.id, build.id);
+  return origins
+    .filter((o) => o.latest > o.version)
+    .flatMap((o) => {
+      const p = build.config.presets.find((x) => x.id === o.presetId);
+      return p ? [{ presetName: p.name, libraryName: o.libraryName, from: o.version, to: o.latest }] : [];
+    });
+}

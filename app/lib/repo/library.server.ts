@@ -232,3 +232,16 @@ export async function importLibraryPreset(db: Db, workshopId: string, authorId: 
     throw e;
   }
 }
+
+/** Every preset's versions, newest first (the "Add from library" picker). */
+export async function libraryVersionList(db: Db, workshopId: string) {
+  return db
+    .selectFrom("library_presets as p")
+    .innerJoin("library_versions as lv", "lv.preset_id", "p.id")
+    .select(["p.id", "p.name", "lv.version"])
+    .where("p.workshop_id", "=", workshopId)
+    .orderBy(sql`lower(p.name)`)
+    .orderBy("lv.version", "desc")
+    .limit(2000)
+    .execute();
+}
