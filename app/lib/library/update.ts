@@ -40,7 +40,14 @@ export function applyPlan(config: Config, plan: UpdatePlan): Config {
 
 /** A library version's changes from one body to another, in words (laid on a stand-in rig). */
 export function bodyChanges(a: PresetBody, b: PresetBody): Change[] {
-  return diffModels(bodyAsModel(a), bodyAsModel(b)).changes;
+  // Every change is inside the one preset: its crumb ("Preset Ember drift") says nothing here.
+  return diffModels(bodyAsModel(a), bodyAsModel(b)).changes.map((c) => {
+    const head = c.where[0];
+    if (!head?.startsWith("Preset ") || !c.text.startsWith(head)) return c;
+    const where = c.where.slice(1);
+    const rest = c.text.slice(head.length).replace(/^ › /, "");
+    return { ...c, where, text: rest.startsWith(": ") ? rest.slice(2).replace(/^./, (x) => x.toUpperCase()) : rest };
+  });
 }
 
 /**
