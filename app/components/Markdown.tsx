@@ -99,7 +99,7 @@ export function Markdown({ source }: { source: string }) {
             return <ul key={n} className="ml-5 max-w-3xl list-disc space-y-1">{b.items.map((it, j) => <li key={j}>{inline(it)}</li>)}</ul>;
           case "table":
             return (
-              <div key={n} className="overflow-x-auto" tabIndex={0} role="region" aria-label="Table">
+              <div key={n} className="overflow-x-auto" tabIndex={0}>
                 <table className="table max-w-4xl">
                   {b.head.length ? <thead><tr>{b.head.map((c, j) => <th key={j} scope="col">{inline(c)}</th>)}</tr></thead> : null}
                   <tbody>{b.rows.map((r, j) => <tr key={j}>{r.map((c, q) => <td key={q}>{inline(c)}</td>)}</tr>)}</tbody>

@@ -295,7 +295,9 @@ test("looks.png answers the time-by-pixel picture, and a bad preset or channel i
   // The page shows the picture for each channel of the selected preset.
   await page.goto(`/builds/${id}/looks`);
   const img = page.getByTestId("look-blade").getByRole("img", { name: /Time-by-pixel picture of Main blade in Ashfall/ });
-  await expect(img).toHaveJSProperty("naturalHeight", 450);
+  // The picture loads lazily, as a person scrolls to it (panels above it can push it below the fold).
+  await img.scrollIntoViewIfNeeded();
+  await expect(img).toHaveJSProperty("naturalHeight", 450, { timeout: 15_000 });
 });
 
 /** Frames the preview draws over `ms` in steady state (checks answered, power figures shown), measured in the page. */

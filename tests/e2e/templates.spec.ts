@@ -139,7 +139,8 @@ test("a reviewer sees a template and the Render view but cannot save or pin", as
   await expect(page.getByText("Read-only for your role.")).toBeVisible();
   await expect(page.getByRole("button", { name: /Save as version/ })).toHaveCount(0);
   await expect(page.locator("[data-testid=template-editor] .cm-content")).toHaveAttribute("contenteditable", "false");
-  await expect(page.getByTestId("preview")).toContainText("/* Harrier */");
+  // The preview is rendered in a Web Worker in the page; a busy machine can take a while.
+  await expect(page.getByTestId("preview")).toContainText("/* Harrier */", { timeout: 20_000 });
   const res = await page.request.post(`/templates/${id}`, { form: { source: "changed", latest: "1" }, headers: { Origin: BASE_URL } });
   expect(res.status()).toBe(403);
   expect((await sql.query("SELECT count(*)::int AS n FROM template_versions WHERE template_id = $1", [id])).rows[0].n).toBe(1);
