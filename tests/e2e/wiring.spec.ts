@@ -14,6 +14,12 @@ test("the Rig tab draws the wiring picture with its connections in words, and sa
   await expect(words).toContainText("Cell positive to the switch: 22 AWG");
   await expect(words).toContainText("Board pin 2 to Main blade · strip 1/2 data in.");
 
+  // The picture follows the form as it changes, before anything is saved: the blade moves to pin 5.
+  await page.locator('input[name="channels.0.pin"]').fill("5");
+  await expect(words).toContainText("Board pin 5 to Main blade · strip 1/2 data in.", { timeout: 60_000 });
+  await expect(words).not.toContainText("Board pin 2 to Main blade");
+  await expect(picture.locator("svg")).toContainText("pin 5");
+
   // A field that does not parse keeps the last good picture and says so.
   await page.locator('input[name="channels.0.pixels"]').fill("");
   await expect(page.getByText("fix the fields marked above to redraw it")).toBeVisible({ timeout: 30_000 });
