@@ -65,3 +65,11 @@ test("an unknown API address in a browser shows the JSON not-found answer, not a
   await expect(page.locator("body")).toContainText('"status":404');
   await expect(page.locator("body")).toContainText("There is no API route");
 });
+
+test("a builder finds the reference from the Account page, next to their tokens", async ({ page, signIn }) => {
+  await signIn("demo-builder");
+  await page.goto("/account");
+  await page.getByRole("link", { name: "API reference" }).click();
+  await expect(page).toHaveURL(/\/api\/docs$/);
+  await expect(page.getByRole("heading", { level: 1, name: "Hiltbench API" })).toBeVisible();
+});
