@@ -7,6 +7,7 @@ import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import { securityHeaders } from "./lib/web/security.server";
+import { apiErrorInsteadOfPage } from "./lib/web/http.server";
 import { startBackgroundWork } from "./lib/mail/mailer.server";
 
 // The mail queue's worker starts with the server (lazily, in the background; not under vitest).
@@ -22,6 +23,8 @@ export default function handleRequest(
   _loadContext: AppLoadContext,
 ) {
   for (const [k, v] of Object.entries(securityHeaders())) responseHeaders.set(k, v);
+  const apiFailure = apiErrorInsteadOfPage(request, responseStatusCode, routerContext.staticHandlerContext.errors, responseHeaders);
+  if (apiFailure) return apiFailure;
   // https://httpwg.org/specs/rfc9110.html#HEAD
   if (request.method.toUpperCase() === "HEAD") {
     return new Response(null, {

@@ -35,7 +35,9 @@ export class ApiContract {
     const method = a.method.toLowerCase();
     if (method === "head" || method === "options" || (a.status >= 300 && a.status < 400 && a.status !== 304)) return null;
     const where = `${a.method.toUpperCase()} ${url.pathname} → ${a.status}`;
-    const route = this.routes.find((r) => r.re.test(url.pathname));
+    // The router serves /api/builds/ as /api/builds.
+    const path = url.pathname.length > 1 ? url.pathname.replace(/\/+$/, "") : url.pathname;
+    const route = this.routes.find((r) => r.re.test(path));
     const op = route ? this.doc.paths[route.path][method] : undefined;
     if (!route || !op) {
       // An unknown address or a method the route does not offer: a 4xx in the one error shape.

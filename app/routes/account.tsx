@@ -51,7 +51,7 @@ export default function Account({ loaderData }: Route.ComponentProps) {
       <section className="card">
         <h2>Personal API tokens</h2>
         <p className="mt-1 text-sm text-iron-400">
-          Scripts call the JSON API with <code className="font-mono">Authorization: Bearer &lt;token&gt;</code>. A token acts as you, with your role.
+          Scripts call the JSON API with <code className="font-mono">Authorization: Bearer &lt;token&gt;</code>. A token acts as you, with your role. Every route, with examples, is in the <a href="/api/docs">API reference</a>.
         </p>
         {result?.token ? (
           <div className="mt-3 rounded border border-brass-400 p-3" role="status">

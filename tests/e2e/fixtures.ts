@@ -1,8 +1,11 @@
 // Shared Playwright fixtures: sign-in through the local fake GitHub as a fixture (the same
 // HTTP steps the browser makes, without repeated clicks), a database handle for arranging data
 // the UI cannot reach (another workshop), a guard that fails a test on unexpected errors
-// in the page, and the accessibility check on every page a test visits (a11y.ts, decision 016).
-import { test as base, expect, type APIRequestContext, type Page, type TestInfo } from "@playwright/test";
+// in the page, the accessibility check on every page a test visits (a11y.ts, decision 016), and
+// the API contract: every /api answer a test receives (request contexts and the page's own
+// fetches) is checked against /api/openapi.json for its route and status (decision 020).
+import { test as base, expect, type APIRequestContext, type APIResponse, type Page, type PlaywrightWorkerArgs, type Response as PageResponse, type TestInfo } from "@playwright/test";
+import { contractOf } from "../api-contract";
 import { A11yError, a11yViolations, expectAccessible, showsHtml } from "./a11y";
 import { createHash, randomBytes } from "node:crypto";
 import pg from "pg";
@@ -35,15 +38,60 @@ export async function signInRequest(request: APIRequestContext, login: string, n
   expect(done.status(), await done.text()).toBe(302);
 }
 
-type Fixtures = { signIn: (login: string) => Promise<void>; sql: pg.Pool; pageErrors: string[] };
+type Fixtures = { signIn: (login: string) => Promise<void>; sql: pg.Pool; pageErrors: string[]; apiContract: string[] };
+
+/** Answers that did not match the document in the running test (reset by the apiContract fixture). */
+let contractMismatches: string[] = [];
+const pendingChecks: Promise<void>[] = [];
+
+async function checkAnswer(method: string, url: string, status: number, contentType: string, body: () => Promise<Buffer>) {
+  if (!new URL(url).pathname.startsWith("/api")) return;
+  const contract = await contractOf(BASE_URL);
+  let bytes: Buffer;
+  try {
+    bytes = await body();
+  } catch {
+    return; // a body the browser did not keep (a redirect, a navigation away): nothing to check
+  }
+  const problem = contract.check({ method, url, status, contentType, body: bytes });
+  if (problem) contractMismatches.push(problem);
+}
+
+/** Every APIRequestContext (the `request` fixture, `page.request`, `playwright.request.newContext()`) checks its /api answers. */
+let contextsPatched = false;
+async function patchRequestContexts(playwright: PlaywrightWorkerArgs["playwright"]) {
+  if (contextsPatched) return;
+  const probe = await playwright.request.newContext();
+  const proto = Object.getPrototypeOf(probe) as { fetch: APIRequestContext["fetch"] };
+  await probe.dispose();
+  const original = proto.fetch;
+  proto.fetch = async function (this: APIRequestContext, urlOrRequest, options = {}) {
+    const response: APIResponse = await original.call(this, urlOrRequest, options);
+    const method = options.method ?? (typeof urlOrRequest === "string" ? "GET" : urlOrRequest.method());
+    await checkAnswer(method, response.url(), response.status(), response.headers()["content-type"] ?? "", () => response.body());
+    return response;
+  };
+  contextsPatched = true;
+}
 
 export const test = base.extend<Fixtures>({
+  apiContract: [async ({ playwright }, use) => {
+    await patchRequestContexts(playwright);
+    contractMismatches = [];
+    await use(contractMismatches);
+    await Promise.all(pendingChecks.splice(0));
+    expect(contractMismatches, "API answers that do not match /api/openapi.json for their route and status").toEqual([]);
+  }, { auto: true }],
   // After a full page load, wait until React has hydrated (the root layout sets
   // html[data-hydrated]); a click that lands before then would hit a button with no handler yet.
   // Then check the page for accessibility (once per address in a test); pages reached by links
   // and forms, and the page as the test leaves it, are checked at the end. Time spent checking
   // is added to the test's timeout (the checks at the end have the fixture's own), so a slow machine never fails a test for it.
-  page: [async ({ page }, use, testInfo) => {
+  page: [async ({ page, apiContract }, use, testInfo) => {
+    void apiContract;
+    page.on("response", (r: PageResponse) => {
+      if (new URL(r.url()).pathname.startsWith("/api")) pendingChecks.push(checkAnswer(r.request().method(), r.url(), r.status(), r.headers()["content-type"] ?? "", () => r.body()));
+    });
     const goto = page.goto.bind(page);
     const visited = new Set<string>();
     const checkedHere = new Set<string>();
@@ -64,6 +112,7 @@ export const test = base.extend<Fixtures>({
       return response;
     };
     await use(page);
+    await Promise.all(pendingChecks.splice(0)); // while the page still holds the bodies
     if (A11Y_CHECK && testInfo.status === testInfo.expectedStatus) await checkAtTestEnd(page, visited);
   }, { scope: "test", timeout: 300_000 }], // its own time for the checks at the end, apart from the test's
   pageErrors: async ({ page }, use) => {

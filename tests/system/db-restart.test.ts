@@ -2,6 +2,7 @@
 // answers 503 (JSON for the API, a page for pages, `database: down` from /healthz) while the
 // database is away, serves again when it is back, and every save it acknowledged is stored.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { contractOf } from "../api-contract";
 import { Browser, startSystem, tokenFor, type Server, type System } from "./harness";
 
 let sys: System;
@@ -110,6 +111,8 @@ describe("a database restart under traffic", () => {
     const apiDown = down.find((s) => s.what === "api");
     expect(apiDown?.status).toBe(503);
     expect(JSON.parse(apiDown!.body).error).toMatch(/database is not answering/);
+    // The outage answer has the API's one error shape, as the document says.
+    expect((await contractOf(app.url)).check({ method: "GET", url: new URL("/api/builds", app.url).href, status: 503, contentType: "application/json", body: Buffer.from(apiDown!.body) })).toBeNull();
     const pageDown = down.find((s) => s.what === "page");
     expect(pageDown?.status).toBe(503);
     expect(pageDown!.body).toContain("database is not answering");

@@ -2,6 +2,7 @@
 // the other, rate limits count across both (stored in PostgreSQL), and a save on one is read at
 // once by the other. Low limits for these servers only; the defaults are generous.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { checkApiAnswer } from "../api-contract";
 import { Browser, startSystem, tokenFor, type Server, type System } from "./harness";
 
 let sys: System;
@@ -25,6 +26,7 @@ describe("two app servers on one database", () => {
     onB.cookies = new Map(onA.cookies);
     const me = await onB.fetch("/api/me");
     expect(me.status).toBe(200);
+    await checkApiAnswer(b.url, "GET", me);
     expect(JSON.stringify(await me.json())).toContain("demo-owner");
     const page = await onB.fetch("/builds");
     expect(page.status).toBe(200);
@@ -46,6 +48,7 @@ describe("two app servers on one database", () => {
       got.config.presets[0].name = `Saved on ${writer === a ? "A" : "B"} (${i})`;
       const put = await fetch(`${writer.url}/api/builds/${id}/config`, { method: "PUT", headers: bearer(token), body: JSON.stringify(got) });
       expect(put.status, await put.clone().text()).toBe(200);
+      await checkApiAnswer(writer.url, "PUT", put);
       const saved = (await put.json()) as { version: number };
       const read = (await (await fetch(`${reader.url}/api/builds/${id}/config`, { headers: bearer(token) })).json()) as { config: { presets: { name: string }[] }; version: number };
       expect(read.version).toBe(saved.version);
@@ -70,6 +73,7 @@ describe("two app servers on one database", () => {
       expect(retry).toBeGreaterThan(0);
       expect(retry).toBeLessThanOrEqual(60);
       expect(limited.headers.get("Content-Type")).toContain("application/json");
+      await checkApiAnswer(s.url, "GET", limited);
       expect(((await limited.json()) as { error: string }).error).toMatch(/Too many requests with this API token/);
     }
     // Another token is not held back by this one.

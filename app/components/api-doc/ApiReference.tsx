@@ -36,7 +36,7 @@ function operationsOf(doc: ApiDoc) {
 
 function Code({ text, label }: { text: string; label: string }) {
   return (
-    <pre tabIndex={0} aria-label={label} className="overflow-x-auto rounded-md border border-soot-700 bg-soot-900 p-3 font-mono text-sm text-iron-100">
+    <pre role="region" tabIndex={0} aria-label={label} className="overflow-x-auto rounded-md border border-soot-700 bg-soot-900 p-3 font-mono text-sm text-iron-100">
       <code>{text}</code>
     </pre>
   );
@@ -63,8 +63,7 @@ function Operation({ method, path, op, id, components }: { method: string; path:
   return (
     <section aria-labelledby={id} className="border-t border-soot-700 pt-6">
       <h3 id={id} className="font-mono text-lg">
-        <span className="mr-2 rounded bg-soot-800 px-2 py-0.5 text-sm uppercase text-ember-400">{method}</span>
-        {path}
+        <span className="rounded bg-soot-800 px-2 py-0.5 text-sm text-ember-400">{method.toUpperCase()}</span> {path}
       </h3>
       {op.summary ? <p className="mt-1 font-semibold">{op.summary}</p> : null}
       {op.description ? (
@@ -156,7 +155,7 @@ export function ApiReference({ doc }: { doc: ApiDoc }) {
           {ops.map((o) => (
             <li key={o.id}>
               <a href={`#${o.id}`}>
-                <span className="font-mono uppercase">{o.method}</span> <span className="font-mono">{o.path}</span>
+                <span className="font-mono">{o.method.toUpperCase()}</span> <span className="font-mono">{o.path}</span>
               </a>
             </li>
           ))}

@@ -5,7 +5,10 @@ import { drawWiring } from "~/lib/wiring";
 export type WiringRequest = { id: number; config: unknown; title: string };
 export type WiringReply = { id: number; ok: boolean; svg: string; connections: string[]; reasons: string[] } | { id: number; error: string };
 
-self.onmessage = async (e: MessageEvent<WiringRequest>) => {
+// A listener, never `self.onmessage =`: elkjs's bundled build, when it first starts inside a
+// worker, installs its own `self.onmessage` (to serve as an ELK worker), which replaced ours
+// after the first drawing, so the picture never redrew as the rig form changed.
+self.addEventListener("message", async (e: MessageEvent<WiringRequest>) => {
   const { id, config, title } = e.data;
   try {
     const p = await drawWiring(config, title);
@@ -14,4 +17,4 @@ self.onmessage = async (e: MessageEvent<WiringRequest>) => {
   } catch (err) {
     self.postMessage({ id, error: err instanceof Error ? err.message : String(err) } satisfies WiringReply);
   }
-};
+});

@@ -196,7 +196,11 @@ export const fontReportSchema = z
   })
   .meta({ id: "FontReport" });
 
-export const fontUploadAnswer = z.strictObject({ status: z.enum(["received", "invalid"]), configVersion: int(), report: fontReportSchema });
+export const fontUploadAnswer = z.strictObject({
+  status: z.enum(["received", "invalid"]),
+  configVersion: int(),
+  report: fontReportSchema.extend({ ignored: z.array(z.string()).meta({ description: "Files in the upload that are not WAVs and were left out (besides system clutter)." }) }),
+});
 
 export const bundlePlanAnswer = z.strictObject({
   name: z.string().meta({ description: "The zip's file name." }),

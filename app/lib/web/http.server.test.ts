@@ -1,6 +1,6 @@
 import { data } from "react-router";
 import { describe, expect, it } from "vitest";
-import { apiAnswer, fail, failureOf, text, textAnswer } from "./http.server";
+import { apiAnswer, apiErrorInsteadOfPage, fail, failureOf, text, textAnswer } from "./http.server";
 
 const thrown = (f: () => unknown): unknown => {
   try {
@@ -31,5 +31,14 @@ describe("one HTTP module", () => {
     await expect(textAnswer(async () => Promise.reject(new Error("bug")))).rejects.toThrow("bug");
     const patch = text("--- a\n", { headers: { "Content-Type": "text/x-diff; charset=utf-8" } });
     expect([patch.headers.get("Content-Type"), patch.headers.get("Cache-Control")]).toEqual(["text/x-diff; charset=utf-8", "no-store"]);
+  });
+
+  it("answers the API's error shape where the router would draw an error page under /api, and nothing elsewhere", async () => {
+    const bad = apiErrorInsteadOfPage(new Request("http://x.test/api/builds/%ED%A0%80"), 400, { root: { status: 400, statusText: "Bad Request", data: "URIError" } });
+    expect([bad?.status, bad?.headers.get("Content-Type"), await bad?.json()]).toEqual([400, "application/json; charset=utf-8", { status: 400, error: expect.stringContaining("percent-encoded") }]);
+    const said = apiErrorInsteadOfPage(new Request("http://x.test/api/docs"), 503, { root: { data: { message: "The database is not answering." } } });
+    expect(await said?.json()).toEqual({ status: 503, error: "The database is not answering." });
+    expect(apiErrorInsteadOfPage(new Request("http://x.test/api/docs"), 200, null)).toBeNull();
+    expect(apiErrorInsteadOfPage(new Request("http://x.test/builds/%ED%A0%80"), 400, null)).toBeNull();
   });
 });

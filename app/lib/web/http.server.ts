@@ -110,6 +110,28 @@ export async function apiAnswer(run: () => Promise<Response>): Promise<Response>
   }
 }
 
+/**
+ * Under /api nothing answers an HTML error page: when the router fails a request before any API
+ * route runs (an address whose percent-encoding it cannot decode, say), the document renderer
+ * would draw the error page; this gives the API's one error shape instead. Null elsewhere.
+ */
+export function apiErrorInsteadOfPage(request: Request, status: number, errors: Record<string, unknown> | null | undefined, headers?: Headers): Response | null {
+  const path = new URL(request.url).pathname;
+  if (status < 400 || !(path === "/api" || path.startsWith("/api/"))) return null;
+  const first = Object.values(errors ?? {})[0] as { data?: unknown; statusText?: string } | undefined;
+  const data = first?.data;
+  const said = typeof data === "object" && data !== null && typeof (data as Failure).message === "string" ? (data as Failure).message : null;
+  const message =
+    said ??
+    (status === 400
+      ? "The address is not valid percent-encoded UTF-8 text (or holds text that cannot be stored)."
+      : status === 404
+        ? "There is no API route at this address. Every route is listed at /api/docs."
+        : "The server hit an unexpected problem; nothing was changed.");
+  const init: ResponseInit = headers ? { headers } : {};
+  return apiError(status, message, {}, init);
+}
+
 /** The same for an address a person downloads from: failures answer as plain text with their status. */
 export async function textAnswer(run: () => Promise<Response>): Promise<Response> {
   try {
