@@ -137,6 +137,11 @@ test("a card is checked in the browser: missing, extra and changed files; a matc
   await expect(changed.getByRole("listitem").filter({ hasText: "northlight/ignite.wav" })).toContainText("bytes; the bundle's is");
   await expect(result).toContainText("Left out: 1 file(s) computers add to cards by themselves.");
 
+  // Not a zip at all (a picture named .zip): said plainly, nothing crashes.
+  const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52]);
+  await page.getByLabel("The card's files or a zip of them").setInputFiles({ name: "card.zip", mimeType: "application/zip", buffer: png });
+  await expect(page.getByRole("alert")).toContainText("Could not read the card's files:");
+
   // The card's folder as the computer shows it (its own top folder name), every file intact.
   const dir = mkdtempSync(path.join(tmpdir(), "hb-card-"));
   try {
