@@ -73,6 +73,15 @@ test("a builder reads the card's files and findings, picks a revision and downlo
   await page.getByLabel("Card size").selectOption("1");
   await page.getByRole("button", { name: "Show the card" }).click();
   await expect(page.getByTestId("bundle-summary")).toContainText("of 1 GB (1,000,000,000 bytes, decimal as cards are sold)");
+  // On a slow link the progress bar shows, and a cancelled download says so.
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 20, downloadThroughput: 40 * 1024, uploadThroughput: -1 });
+  await page.getByRole("button", { name: "Download the card zip" }).click();
+  await expect(page.getByRole("progressbar", { name: "Downloading the card zip" })).toBeVisible();
+  await page.getByRole("button", { name: "Cancel" }).click();
+  await expect(page.getByRole("alert")).toHaveText("Download cancelled.");
+  await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+
   const listed = await table.locator("tbody tr").evaluateAll((rows) => rows.map((r) => [...r.querySelectorAll("td")].map((td) => td.textContent!.trim())));
   const downloading = page.waitForEvent("download");
   await page.getByRole("button", { name: "Download the card zip" }).click();
