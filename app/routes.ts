@@ -36,6 +36,8 @@ export default [
     route("templates", "routes/templates._index.tsx"),
     route("templates/reference", "routes/templates.reference.tsx"),
     route("templates/:templateId", "routes/templates.$templateId.tsx"),
+    route("library", "routes/library._index.tsx"),
+    route("library/:presetId", "routes/library.$presetId.tsx"),
   ]),
 
   ...prefix("api", [
@@ -53,6 +55,19 @@ export default [
     route("builds/:buildId/diff", "routes/api.builds.$buildId.diff.ts"),
     route("builds/:buildId/fonts/:fontId/files", "routes/api.builds.$buildId.fonts.$fontId.files.ts"),
     route("builds/:buildId/bundle", "routes/api.builds.$buildId.bundle.ts"),
+    route("builds/:buildId/presets", "routes/api.builds.$buildId.presets.ts"),
+    route("builds/:buildId/preset-updates", "routes/api.builds.$buildId.preset-updates.ts"),
+    route("presets", "routes/api.presets.ts"),
+    route("presets/:presetId", "routes/api.presets.$presetId.ts"),
+    route("presets/:presetId/export", "routes/api.presets.$presetId.export.ts"),
+    route("presets/:presetId/rollout", "routes/api.presets.$presetId.rollout.ts"),
+    route("presets/:presetId/versions", "routes/api.presets.$presetId.versions.ts"),
+    route("presets/:presetId/versions/:v", "routes/api.presets.$presetId.versions.$v.ts"),
+    // The API's own reference, public: the OpenAPI document and a page drawn from it.
+    route("openapi.json", "routes/api.openapi-json.ts"),
+    route("docs", "routes/api.docs.tsx"),
+    // Unknown /api addresses answer a JSON 404 (keep last in this list).
+    route("*", "routes/api.not-found.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

@@ -4,6 +4,7 @@ import { sql, type Kysely } from "kysely";
 import { demoConfig, demoConfigSmall } from "../app/lib/config/demo";
 import { validate } from "../app/lib/checks/validate";
 import type { Database, Role } from "../app/lib/db/types";
+import { seedLibrary } from "./seed-library";
 
 export const DEMO_PEOPLE: { login: string | null; email: string | null; name: string; role: Role }[] = [
   { login: "demo-owner", email: "owner@ember-anvil.example.test", name: "Demo Owner", role: "owner" },
@@ -85,5 +86,6 @@ export async function seed(db: Kysely<Database>) {
       })
       .execute();
   }
+  await seedLibrary(db, ws.id, ids.get("demo-builder") ?? null);
   return { workshopId: ws.id };
 }

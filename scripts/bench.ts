@@ -7,7 +7,7 @@ import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 
-const areas = ["config", "power", "template", "template-browser", "effects", "preview", "load", "diff", "audio", "bundle"];
+const areas = ["config", "power", "template", "template-browser", "effects", "preview", "load", "diff", "audio", "bundle", "library"];
 const fileOf = (area: string) => fileURLToPath(new URL(`./bench/${area}.ts`, import.meta.url));
 const only = process.argv[2];
 

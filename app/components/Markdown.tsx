@@ -94,12 +94,12 @@ export function Markdown({ source }: { source: string }) {
           case "para":
             return <p key={n} className="max-w-3xl text-iron-100">{inline(b.text)}</p>;
           case "code":
-            return <pre key={n} className="overflow-x-auto rounded-md border border-soot-700 bg-soot-900 p-3 font-mono text-sm text-iron-100">{b.text}</pre>;
+            return <pre key={n} tabIndex={0} className="overflow-x-auto rounded-md border border-soot-700 bg-soot-900 p-3 font-mono text-sm text-iron-100">{b.text}</pre>;
           case "list":
             return <ul key={n} className="ml-5 max-w-3xl list-disc space-y-1">{b.items.map((it, j) => <li key={j}>{inline(it)}</li>)}</ul>;
           case "table":
             return (
-              <div key={n} className="overflow-x-auto">
+              <div key={n} className="overflow-x-auto" tabIndex={0} role="region" aria-label="Table">
                 <table className="table max-w-4xl">
                   {b.head.length ? <thead><tr>{b.head.map((c, j) => <th key={j} scope="col">{inline(c)}</th>)}</tr></thead> : null}
                   <tbody>{b.rows.map((r, j) => <tr key={j}>{r.map((c, q) => <td key={q}>{inline(c)}</td>)}</tr>)}</tbody>

@@ -10,7 +10,8 @@ import { readBundleQuery } from "~/lib/bundle/query";
 import { bundleFor, planAnswer } from "~/lib/bundle/service.server";
 import { zipBundle } from "~/lib/bundle/zip.server";
 import { storage } from "~/lib/storage/settings.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { bundlePlanAnswer } from "~/lib/api-doc/shapes";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.bundle";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -20,9 +21,9 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const q = readBundleQuery(new URL(request.url).searchParams);
     if (!q.ok) fail(400, q.error);
     const plan = await bundleFor(v, b, q.value);
-    if (q.value.check) return json(planAnswer(plan));
+    if (q.value.check) return jsonAs(bundlePlanAnswer, planAnswer(plan));
     const errors = plan.findings.filter((f) => f.severity === "error");
-    if (errors.length) return json({ error: `The card cannot be built: ${errors.map((e) => e.message).join(" ")}`, findings: plan.findings }, { status: 422 });
+    if (errors.length) fail(422, `The card cannot be built: ${errors.map((e) => e.message).join(" ")}`, { findings: plan.findings });
     const body = zipBundle(plan, storage());
     return new Response(Readable.toWeb(body) as ReadableStream, {
       headers: {

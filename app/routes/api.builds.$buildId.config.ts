@@ -5,7 +5,8 @@ import { readJsonBody, requireField } from "~/lib/web/body.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { storeCheckedConfig } from "~/lib/checks/save.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
+import { configAnswer, configSavedAnswer } from "~/lib/api-doc/shapes";
 import { INT4_MAX, isInt4 } from "~/lib/input/edges";
 import { getRevisionFor } from "~/lib/revisions/compare.server";
 import { readMessage } from "~/lib/forms/revision-message";
@@ -15,7 +16,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
   return apiAnswer(async () => {
     const v = await requireViewer(request, "view:builds");
     const b = await loadBuildFor(v, params.buildId);
-    return json({ config: b.config, version: b.config_version });
+    return jsonAs(configAnswer, { config: b.config, version: b.config_version });
   });
 }
 
@@ -31,10 +32,10 @@ export function action({ request, params }: Route.ActionArgs) {
     const note = readMessage(body && typeof body === "object" ? (body as { message?: unknown }).message : undefined);
     if (!note.ok) fail(400, note.error);
     const r = await storeCheckedConfig(v, b.id, config, version, { message: note.message });
-    if (r.kind === "invalid") return json({ error: r.message, diagnostics: r.diagnostics }, { status: 422 });
-    if (r.kind === "stale") return json({ error: r.message, currentVersion: r.currentVersion }, { status: 409 });
+    if (r.kind === "invalid") fail(422, r.message, { diagnostics: r.diagnostics });
+    if (r.kind === "stale") fail(409, r.message, { currentVersion: r.currentVersion });
     const rev = await getRevisionFor(v, b.id, r.version);
-    return json({
+    return jsonAs(configSavedAnswer, {
       version: r.version,
       revision: rev ? { number: rev.number, savedAt: rev.createdAt.toISOString(), message: rev.message, url: `/api/builds/${b.id}/revisions/${rev.number}` } : { number: r.version },
       diagnostics: r.diagnostics,

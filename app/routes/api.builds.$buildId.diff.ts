@@ -5,7 +5,8 @@
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { compareFromUrl } from "~/lib/revisions/compare.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
+import { diffAnswer } from "~/lib/api-doc/shapes";
 import type { Route } from "./+types/api.builds.$buildId.diff";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -17,6 +18,6 @@ export function loader({ request, params }: Route.LoaderArgs) {
       if (c.text.kind === "too-large") fail(422, `The rendered outputs differ in more than ${c.text.limit} lines; compare nearer revisions.`);
       return new Response(c.text.patch, { headers: { "Content-Type": "text/x-diff; charset=utf-8", "Cache-Control": "no-store", "X-Template": `${c.template.name}@${c.template.version}` } });
     }
-    return json(c);
+    return jsonAs(diffAnswer, c);
   });
 }

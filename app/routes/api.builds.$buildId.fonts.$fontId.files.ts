@@ -5,7 +5,8 @@ import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { uploadFont } from "~/lib/fonts/service.server";
 import { UploadRefused } from "~/lib/fonts/zip.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
+import { fontUploadAnswer } from "~/lib/api-doc/shapes";
 import type { Route } from "./+types/api.builds.$buildId.fonts.$fontId.files";
 
 export function action({ request, params }: Route.ActionArgs) {
@@ -16,9 +17,9 @@ export function action({ request, params }: Route.ActionArgs) {
     if (!b.config.fonts.some((f) => f.id === params.fontId)) fail(404, `This build has no font "${params.fontId}". Add it on the Fonts tab first.`);
     try {
       const r = await uploadFont(v, b.id, params.fontId, request);
-      return json({ status: r.report.status, configVersion: r.configVersion, report: r.report });
+      return jsonAs(fontUploadAnswer, { status: r.report.status, configVersion: r.configVersion, report: r.report });
     } catch (e) {
-      if (e instanceof UploadRefused) return json({ error: e.message }, { status: e.status });
+      if (e instanceof UploadRefused) fail(e.status, e.message);
       throw e;
     }
   });

@@ -4,11 +4,11 @@
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { downloadName } from "~/lib/rendering/render";
-import { chooseTemplateForBuild, renderBuildOrSource, resolveTemplate } from "~/lib/rendering/service.server";
+import { chooseTemplateForBuild, renderBuildOrSource, renderFailedMessage, resolveTemplate } from "~/lib/rendering/service.server";
 import { can } from "~/lib/auth/permissions";
 import { renderRevision, revisionOf, templateForRevision } from "~/lib/revisions/compare.server";
 import { readRevisionNumber } from "~/lib/revisions/params";
-import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
+import { apiAnswer, fail, text } from "~/lib/web/http.server";
 import { INT4_MAX, int4From } from "~/lib/input/edges";
 import type { Route } from "./+types/api.builds.$buildId.render";
 
@@ -33,7 +33,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     }
     const t = await chooseTemplateForBuild(v, b, url.searchParams.get("template"), version);
     const r = await renderBuildOrSource(v, { build: b }, t);
-    if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
+    if (r.kind === "failed") fail(422, renderFailedMessage(r.total), { errors: r.errors, total: r.total, kinds: r.kinds });
     const headers = new Headers({ "X-Template": `${t.name}@${t.version}` });
     if (url.searchParams.get("download")) headers.set("Content-Disposition", `attachment; filename="${downloadName(b.name, t.name, r.target)}"`);
     return text(r.output, { headers });

@@ -3,7 +3,8 @@ import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { revisionOf } from "~/lib/revisions/compare.server";
 import { readRevisionNumber } from "~/lib/revisions/params";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
+import { revisionAnswer } from "~/lib/api-doc/shapes";
 import type { Route } from "./+types/api.builds.$buildId.revisions.$n";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -13,6 +14,6 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const n = readRevisionNumber(params.n, "n");
     if (!n.ok) fail(400, n.error);
     const { config, ...r } = await revisionOf(v, b, n.value);
-    return json({ buildId: b.id, ...r, createdAt: r.createdAt.toISOString(), current: r.number === b.config_version, review: null, config });
+    return jsonAs(revisionAnswer, { buildId: b.id, ...r, createdAt: r.createdAt.toISOString(), current: r.number === b.config_version, review: null, config });
   });
 }

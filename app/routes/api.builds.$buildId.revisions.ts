@@ -5,7 +5,8 @@ import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { listRevisionsFor } from "~/lib/revisions/compare.server";
 import { readListQuery } from "~/lib/revisions/params";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
+import { revisionListAnswer } from "~/lib/api-doc/shapes";
 import type { Route } from "./+types/api.builds.$buildId.revisions";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -15,7 +16,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const q = readListQuery(new URL(request.url).searchParams);
     if (!q.ok) fail(400, q.error);
     const { rows, total } = await listRevisionsFor(v, b.id, q.value);
-    return json({
+    return jsonAs(revisionListAnswer, {
       buildId: b.id,
       current: b.config_version,
       page: q.value.page,

@@ -1,13 +1,14 @@
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { apiAnswer, json } from "~/lib/web/http.server";
+import { apiAnswer, jsonAs } from "~/lib/web/http.server";
+import { buildAnswer } from "~/lib/api-doc/shapes";
 import type { Route } from "./+types/api.builds.$buildId";
 
 export function loader({ request, params }: Route.LoaderArgs) {
   return apiAnswer(async () => {
     const v = await requireViewer(request, "view:builds");
     const b = await loadBuildFor(v, params.buildId);
-    return json({
+    return jsonAs(buildAnswer, {
       id: b.id,
       name: b.name,
       client: b.client_name,
@@ -15,7 +16,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
       hiltNotes: b.hilt_notes,
       archived: b.archived_at !== null,
       configVersion: b.config_version,
-      updatedAt: b.updated_at,
+      updatedAt: b.updated_at.toISOString(),
       rig: b.config.rig,
     });
   });

@@ -1,6 +1,7 @@
 import { requireViewer } from "~/lib/auth/auth.server";
 import { parseBuildQuery } from "~/lib/forms/build-forms";
-import { apiAnswer, json } from "~/lib/web/http.server";
+import { apiAnswer, jsonAs } from "~/lib/web/http.server";
+import { buildListAnswer } from "~/lib/api-doc/shapes";
 import { buildsFor } from "~/lib/builds/builds.server";
 import type { Route } from "./+types/api.builds";
 
@@ -9,11 +10,11 @@ export function loader({ request }: Route.LoaderArgs) {
     const v = await requireViewer(request, "view:builds");
     const query = parseBuildQuery(new URL(request.url));
     const { rows, total } = await buildsFor(v, query);
-    return json({
+    return jsonAs(buildListAnswer, {
       total,
       page: query.page,
       perPage: query.perPage,
-      builds: rows.map((r) => ({ id: r.id, name: r.name, client: r.client_name, status: r.status, updatedAt: r.updated_at, createdAt: r.created_at, archived: r.archived_at !== null })),
+      builds: rows.map((r) => ({ id: r.id, name: r.name, client: r.client_name, status: r.status, updatedAt: r.updated_at.toISOString(), createdAt: r.created_at.toISOString(), archived: r.archived_at !== null })),
     });
   });
 }

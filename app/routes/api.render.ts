@@ -1,26 +1,16 @@
 // POST /api/render: a config (or a build's) through a template (a built-in, a workshop template
 // version, or posted source). Answers the output as text/plain, or 422 with the errors.
-import { z } from "zod";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { chooseTemplate, renderBuildOrSource } from "~/lib/rendering/service.server";
+import { chooseTemplate, renderBuildOrSource, renderFailedMessage } from "~/lib/rendering/service.server";
 import { readJsonBody } from "~/lib/web/body.server";
-import { apiAnswer, fail, json, text } from "~/lib/web/http.server";
-import { INT4_MAX } from "~/lib/input/edges";
+import { apiAnswer, fail, text } from "~/lib/web/http.server";
+import { renderBodySchema, templateRefSchema } from "~/lib/rendering/request";
 import type { Route } from "./+types/api.render";
 
 /** Templates are tens of kilobytes and configs a few hundred; a render request stays under 1 MB. */
 export const MAX_RENDER_BYTES = 1024 * 1024;
 
-const Body = z.union([
-  z.object({ config: z.unknown(), buildId: z.undefined().optional(), template: z.unknown() }),
-  z.object({ buildId: z.string(), config: z.undefined().optional(), template: z.unknown() }),
-]);
-const TemplateRef = z.union([
-  z.object({ id: z.string().min(1), version: z.number().int().min(1).max(INT4_MAX).optional() }).strict(),
-  z.object({ source: z.string() }).strict(),
-  z.object({ builtin: z.string() }).strict(),
-]);
 
 const USAGE = 'Send JSON { "config": {...} | "buildId": "...", "template": { "id": "...", "version": n } | { "source": "..." } | { "builtin": "generic-header" } }.';
 
@@ -41,15 +31,15 @@ export function action({ request }: Route.ActionArgs) {
     const hasConfig = Object.hasOwn(raw, "config");
     const hasBuild = Object.hasOwn(raw, "buildId");
     if (hasConfig === hasBuild) fail(400, `Give exactly one of "config" and "buildId". ${USAGE}`);
-    const body = Body.safeParse(raw);
+    const body = renderBodySchema.safeParse(raw);
     if (!body.success) fail(400, `"buildId" must be a build id text. ${USAGE}`);
-    const ref = TemplateRef.safeParse(body.data.template);
+    const ref = templateRefSchema.safeParse(body.data.template);
     if (!ref.success) fail(400, `"template" must be one of { "id", "version"? }, { "source" } or { "builtin" }. ${USAGE}`);
     const build = body.data.buildId !== undefined ? await loadBuildFor(v, body.data.buildId) : null;
     const t = await chooseTemplate(v, ref.data, build ?? undefined);
     const r = await renderBuildOrSource(v, build ? { build } : { config: body.data.config }, t);
-    if (r.kind === "bad-config") return json({ error: r.message, errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
-    if (r.kind === "failed") return json({ errors: r.errors, total: r.total, kinds: r.kinds }, { status: 422 });
+    if (r.kind === "bad-config") fail(422, r.message, { errors: r.errors, total: r.total, kinds: r.kinds });
+    if (r.kind === "failed") fail(422, renderFailedMessage(r.total), { errors: r.errors, total: r.total, kinds: r.kinds });
     return text(r.output, { headers: { "X-Template": `${t.name}@${t.version}` } });
   });
 }

@@ -4,7 +4,8 @@ import { readJsonBody, requireField } from "~/lib/web/body.server";
 import { powerModeFor } from "~/lib/checks/power-mode";
 import { validateConfig } from "~/lib/checks/validate";
 import { requireViewer } from "~/lib/auth/auth.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
+import { validateAnswer } from "~/lib/api-doc/shapes";
 import type { Route } from "./+types/api.validate";
 
 export function loader({ request }: Route.LoaderArgs) {
@@ -21,6 +22,6 @@ export function action({ request }: Route.ActionArgs) {
     const config = requireField(await readJsonBody(request), "config");
     const powerMode = powerModeFor(config);
     const { diagnostics, power } = validateConfig(config, { power: powerMode });
-    return json({ diagnostics, power, powerSource: power ? powerMode : null });
+    return jsonAs(validateAnswer, { diagnostics, power, powerSource: power ? powerMode : null });
   });
 }

@@ -31,6 +31,11 @@ export default function AppLayout({ loaderData }: Route.ComponentProps) {
               Templates
             </NavLink>
           ) : null}
+          {can(viewer.role, "view:library") ? (
+            <NavLink to="/library" className={link}>
+              Library
+            </NavLink>
+          ) : null}
           {can(viewer.role, "view:members") ? (
             <NavLink to="/workshop" className={link}>
               Workshop

@@ -7,6 +7,7 @@ import { fieldErrors } from "~/lib/forms/form-errors";
 import { fail } from "~/lib/web/http.server";
 import { can } from "~/lib/auth/permissions";
 import { clientsOf, setArchivedFor, updateDetails } from "~/lib/builds/builds.server";
+import { outdatedPresetsFor } from "~/lib/library/service.server";
 import type { Route } from "./+types/builds.$buildId._index";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -32,6 +33,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       fonts: cfg.fonts.map((f) => ({ name: f.name, status: f.status, usedBy: cfg.presets.filter((p) => p.fontId === f.id).map((p) => p.name) })),
     },
     canEdit,
+    outdated: can(v.role, "view:library") ? await outdatedPresetsFor(v, b) : [],
     canArchive: can(v.role, "archive:build"),
     clients: canEdit ? await clientsOf(v) : [],
   };
@@ -57,7 +59,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function BuildOverview({ loaderData }: Route.ComponentProps) {
-  const { build, summary, canEdit, canArchive, clients } = loaderData;
+  const { build, summary, canEdit, canArchive, clients, outdated } = loaderData;
   const result = useActionData<typeof action>();
   const nav = useNavigation();
   return (
@@ -86,6 +88,21 @@ export default function BuildOverview({ loaderData }: Route.ComponentProps) {
         )}
       </section>
       <aside className="space-y-4">
+        {outdated.length ? (
+          <section className="card border border-signal-warning text-sm" data-testid="overview-updates" aria-labelledby="updates-h">
+            <h3 id="updates-h">Update available</h3>
+            <ul className="mt-2 space-y-1">
+              {outdated.map((o) => (
+                <li key={o.presetName}>
+                  {o.presetName}: {o.libraryName} v{o.from} → v{o.to}
+                </li>
+              ))}
+            </ul>
+            <Link to="looks" className="mt-2 inline-block">
+              See the changes on Looks
+            </Link>
+          </section>
+        ) : null}
         <section className="card text-sm">
           <h3>Channels</h3>
           <ul className="mt-2 list-inside list-disc text-iron-300">{summary.channels.map((c) => <li key={c}>{c}</li>)}</ul>

@@ -248,7 +248,7 @@ function ReadBack({ configVersion, canEdit }: { configVersion: number; canEdit: 
                     </span>
                     : {e.message}
                     {lines[e.line - 1] !== undefined ? (
-                      <pre className="mt-1 overflow-x-auto rounded bg-soot-950 p-2 text-xs">
+                      <pre tabIndex={0} className="mt-1 overflow-x-auto rounded bg-soot-950 p-2 text-xs">
                         {lines[e.line - 1]}
                         {"\n"}
                         {" ".repeat(Math.max(0, e.column - 1))}^

@@ -68,7 +68,7 @@ function ThreadView({ t, canReply, canResolve }: { t: Thread; canReply: boolean;
         {t.outdated ? " · outdated: the line changed" : ""}
         {t.resolved ? ` · resolved${t.resolved.by ? ` by ${t.resolved.by}` : ""}` : ""}
       </p>
-      {t.outdated && t.lineText !== null ? <pre className="mt-1 overflow-x-auto text-xs text-iron-400">{t.lineText}</pre> : null}
+      {t.outdated && t.lineText !== null ? <pre tabIndex={0} className="mt-1 overflow-x-auto text-xs text-iron-400">{t.lineText}</pre> : null}
       <ol className="mt-2 space-y-2">
         {t.comments.map((c) => (
           <li key={c.id} id={c.id === t.id ? undefined : `comment-${c.id}`}>

@@ -36,7 +36,8 @@ function aptInstall(pkgs, why) {
   }
   log(`installing ${pkgs.join(", ")} from Debian's packages`);
   run("apt-get", ["update", "-q"]);
-  run("apt-get", ["install", "-y", "-q", "--no-install-recommends", ...pkgs], { env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" } });
+  // Another install on the machine (a second test run's) holds dpkg's lock for a while: wait for it.
+  run("apt-get", ["-o", "DPkg::Lock::Timeout=600", "install", "-y", "-q", "--no-install-recommends", ...pkgs], { env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" } });
 }
 
 /** PostgreSQL's server programs; installed from Debian when absent. */

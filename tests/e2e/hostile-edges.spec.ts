@@ -12,8 +12,8 @@ import type pg from "pg";
 import { test, expect, buildIdByName, BASE_URL, signInRequest, tokenFor } from "./fixtures";
 import { insertTemplate, uniq } from "./template-helpers";
 
-type Ids = { build: string; template: string; token: string };
-type Action = { route: string; method: "POST" | "PUT"; path: (i: Ids) => string; form?: Record<string, string>; json?: unknown };
+type Ids = { build: string; template: string; token: string; lib: string };
+type Action = { route: string; method: "POST" | "PUT" | "DELETE"; path: (i: Ids) => string; form?: Record<string, string>; json?: unknown };
 
 /** One state-changing request per action route of app/routes.ts (the last test checks the list is whole). */
 const ACTIONS: Action[] = [
@@ -37,6 +37,16 @@ const ACTIONS: Action[] = [
   { route: "routes/api.render.ts", method: "POST", path: () => "/api/render", json: { config: {}, template: { builtin: "generic-header" } } },
   { route: "routes/api.builds.$buildId.config.ts", method: "PUT", path: (i) => `/api/builds/${i.build}/config`, json: { config: {}, version: 0 } },
   { route: "routes/api.builds.$buildId.render.ts", method: "POST", path: (i) => `/api/builds/${i.build}/render`, json: {} },
+  { route: "routes/builds.$buildId.looks.tsx", method: "POST", path: (i) => `/builds/${i.build}/looks`, form: { intent: "add-from-library", libraryPresetId: "", fontId: "ashfall", configVersion: "0" } },
+  { route: "routes/library._index.tsx", method: "POST", path: () => "/library", form: {} },
+  { route: "routes/library.$presetId.tsx", method: "POST", path: (i) => `/library/${i.lib}`, form: { intent: "dry-run" } },
+  { route: "routes/api.presets.ts", method: "POST", path: () => "/api/presets", json: { changelog: "cross-site", preset: {} } },
+  { route: "routes/api.presets.$presetId.versions.ts", method: "POST", path: (i) => `/api/presets/${i.lib}/versions`, json: { baseVersion: 2, changelog: "cross-site", preset: {} } },
+  { route: "routes/api.presets.$presetId.versions.$v.ts", method: "DELETE", path: (i) => `/api/presets/${i.lib}/versions/2` },
+  { route: "routes/api.presets.$presetId.rollout.ts", method: "POST", path: (i) => `/api/presets/${i.lib}/rollout`, json: { apply: false } },
+  { route: "routes/api.builds.$buildId.presets.ts", method: "POST", path: (i) => `/api/builds/${i.build}/presets`, json: { libraryPresetId: "00000000-0000-0000-0000-000000000000", fontId: "ashfall", configVersion: 0 } },
+  { route: "routes/api.builds.$buildId.preset-updates.ts", method: "POST", path: (i) => `/api/builds/${i.build}/preset-updates`, json: { presetId: "ashfall", configVersion: 0 } },
+  { route: "routes/api.not-found.ts", method: "POST", path: () => "/api/no-such-route", json: {} },
 ];
 
 const EVIL = "http://evil.test";
@@ -54,7 +64,8 @@ async function arrange(sql: pg.Pool): Promise<Ids> {
   ).rows[0].id;
   const template = await insertTemplate(sql, `edges-${uniq()}`, ["one"]);
   const token = await tokenFor(sql, "demo-owner", `edges ${uniq()}`);
-  return { build, template, token };
+  const lib = (await sql.query("SELECT id FROM library_presets WHERE name = 'Ashfall embers'")).rows[0].id as string;
+  return { build, template, token, lib };
 }
 
 async function cleanUp(sql: pg.Pool, ids: Ids, since: Date) {
@@ -62,6 +73,7 @@ async function cleanUp(sql: pg.Pool, ids: Ids, since: Date) {
   await sql.query("DELETE FROM builds WHERE id = $1 OR created_at >= $2", [ids.build, since]);
   await sql.query("DELETE FROM templates WHERE id = $1 OR created_at >= $2", [ids.template, since]);
   await sql.query("DELETE FROM invitations WHERE created_at >= $1", [since]);
+  await sql.query("DELETE FROM library_presets WHERE created_at >= $1", [since]);
   await sql.query("DELETE FROM api_tokens WHERE created_at >= $1 AND name <> 'e2e'", [since]);
 }
 
@@ -74,6 +86,7 @@ async function snapshot(sql: pg.Pool, ids: Ids) {
     invitations: await q("SELECT count(*)::int AS n FROM invitations"),
     tokens: await q("SELECT count(*)::int AS n FROM api_tokens WHERE revoked_at IS NULL"),
     reviews: await q("SELECT (SELECT count(*)::int FROM review_requests) AS requests, (SELECT count(*)::int FROM review_comments) AS comments"),
+    library: await q("SELECT (SELECT count(*)::int FROM library_presets) AS presets, (SELECT count(*)::int FROM library_versions) AS versions, (SELECT count(*)::int FROM build_preset_origins) AS origins"),
   });
 }
 
@@ -265,6 +278,10 @@ test.describe("random input at every edge never answers 500", () => {
           await record("GET render ?version", true, await get(api, `/api/builds/${ids.build}/render?template=${ids.template}&version=${wtf8(n)}`));
           await record("GET looks.png", true, await get(api, `/api/builds/${ids.build}/looks.png?preset=${wtf8(t1)}&channel=${wtf8(t2)}`));
           await record("GET /api/builds ?q", true, await get(api, `/api/builds?q=${wtf8(t1)}&page=${wtf8(n)}`));
+          await record("GET /api/presets ?q&tag", true, await get(api, `/api/presets?q=${wtf8(t1)}&tag=${wtf8(t2)}&page=${wtf8(n)}`));
+          await record("GET /api/presets/:id", true, await get(api, `/api/presets/${wtf8(t1)}/versions/${wtf8(n)}`));
+          await record("POST /api/presets", true, await rawJson("POST", "/api/presets", { changelog: t2, preset: { name: t1, tags: [t2], notes: t1, looks: { "main-blade": { pixels: v, layers: [] } } } }));
+          await record("POST /api/builds/:id/presets", true, await rawJson("POST", `/api/builds/${ids.build}/presets`, { libraryPresetId: ids.lib, version: v, fontId: t1, configVersion: n, name: t2 }));
 
           // ---- form actions and page parameters, signed in as the owner from our own origin
           await record("POST /builds/new", false, await form("/builds/new", { name: t1, clientName: t2, status: "intake" }));

@@ -9,7 +9,7 @@ type Who = "anonymous" | "owner" | "builder" | "reviewer" | "client";
 const LOGINS: Record<Exclude<Who, "anonymous">, string> = { owner: "demo-owner", builder: "demo-builder", reviewer: "demo-reviewer", client: "client-one" };
 type Outcome = "ok" | "bad" | "403" | "404" | "405" | "409" | "415" | "login" | "401" | "redirect";
 type Case = { route: string; method: "GET" | "POST" | "PUT"; path: (ids: Ids) => string; form?: Record<string, string>; json?: unknown; expect: Record<Who, Outcome> };
-type Ids = { kestrel: string; harrier: string; template: string; kestrelSound: string; harrierSound: string; review: string };
+type Ids = { kestrel: string; harrier: string; template: string; kestrelSound: string; harrierSound: string; review: string; lib: string };
 
 const all = (o: Outcome): Record<Who, Outcome> => ({ anonymous: o, owner: o, builder: o, reviewer: o, client: o });
 const staff = (ok: Outcome, others: Outcome, anon: Outcome = "login"): Record<Who, Outcome> => ({ anonymous: anon, owner: ok, builder: ok, reviewer: others, client: others });
@@ -112,9 +112,35 @@ const CASES: Case[] = [
   { route: "/builds/:buildId/reviews/:requestId", method: "POST", path: (i) => `/builds/${i.kestrel}/reviews/${i.review}`, form: { intent: "comment", body: "", line: "1" }, expect: { ...staff("bad", "403"), reviewer: "bad" } },
   // A verdict on a revision that is not in review (the matrix's request is for revision 9999): 409; builders and clients may give none.
   { route: "/builds/:buildId/reviews/:requestId", method: "POST", path: (i) => `/builds/${i.kestrel}/reviews/${i.review}`, form: { intent: "verdict", verdict: "approved" }, expect: { anonymous: "login", owner: "409", builder: "403", reviewer: "409", client: "403" } },
+  // The preset library: owners and builders publish and apply, reviewers read, clients see nothing (decision 019).
+  { route: "/library", method: "GET", path: () => "/library", expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/library", method: "POST", path: () => "/library", form: { nothing: "" }, expect: staff("bad", "403") },
+  { route: "/library/:presetId", method: "GET", path: (i) => `/library/${i.lib}`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/library/:presetId", method: "GET", path: (i) => `/library/${i.lib}?compare=x`, expect: { ...staff("bad", "403"), reviewer: "bad" } },
+  { route: "/library/:presetId", method: "POST", path: (i) => `/library/${i.lib}`, form: { intent: "delete-version", version: "" }, expect: staff("bad", "403") },
+  { route: "/library/:presetId", method: "POST", path: (i) => `/library/${i.lib}`, form: { intent: "dry-run" }, expect: { anonymous: "login", owner: "ok", builder: "403", reviewer: "403", client: "403" } },
+  { route: "/builds/:buildId/looks", method: "POST", path: (i) => `/builds/${i.kestrel}/looks`, form: { intent: "add-from-library" }, expect: staff("bad", "403") },
+  { route: "/api/presets", method: "GET", path: () => "/api/presets", expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/presets", method: "POST", path: () => "/api/presets", json: {}, expect: staff("bad", "403", "401") },
+  { route: "/api/presets/:presetId", method: "GET", path: (i) => `/api/presets/${i.lib}`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/presets/:presetId/export", method: "GET", path: (i) => `/api/presets/${i.lib}/export`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/presets/:presetId/rollout", method: "POST", path: (i) => `/api/presets/${i.lib}/rollout`, json: {}, expect: { anonymous: "401", owner: "bad", builder: "403", reviewer: "403", client: "403" } },
+  { route: "/api/presets/:presetId/versions", method: "GET", path: (i) => `/api/presets/${i.lib}/versions`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/presets/:presetId/versions", method: "POST", path: (i) => `/api/presets/${i.lib}/versions`, json: {}, expect: staff("bad", "403", "401") },
+  { route: "/api/presets/:presetId/versions/:v", method: "GET", path: (i) => `/api/presets/${i.lib}/versions/1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/presets", method: "GET", path: (i) => `/api/builds/${i.kestrel}/presets`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/presets", method: "POST", path: (i) => `/api/builds/${i.kestrel}/presets`, json: {}, expect: staff("bad", "403", "401") },
+  { route: "/api/builds/:buildId/preset-updates", method: "GET", path: (i) => `/api/builds/${i.kestrel}/preset-updates`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/preset-updates", method: "POST", path: (i) => `/api/builds/${i.kestrel}/preset-updates`, json: {}, expect: staff("bad", "403", "401") },
   // The development mailbox is open to anyone while it is served (HB_DEV_MAILBOX=1 in the e2e run); production answers 404.
   { route: "/dev/mailbox", method: "GET", path: () => "/dev/mailbox", expect: all("ok") },
   { route: "/dev/mailbox/:messageId", method: "GET", path: () => "/dev/mailbox/00000000-0000-4000-8000-000000000000", expect: all("404") },
+  // The API's reference is public: the OpenAPI document and the page drawn from it.
+  { route: "/api/openapi.json", method: "GET", path: () => "/api/openapi.json", expect: all("ok") },
+  { route: "/api/docs", method: "GET", path: () => "/api/docs", expect: all("ok") },
+  // An unknown API address: a JSON 404 for everyone, signed in or not.
+  { route: "/api/*", method: "GET", path: () => "/api/no/such/route", expect: all("404") },
+  { route: "/api/*", method: "POST", path: () => "/api/no-such-route", json: {}, expect: all("404") },
   { route: "*", method: "GET", path: () => "/no/such/page", expect: all("404") },
 ];
 
@@ -142,7 +168,9 @@ for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who
       (await sql.query("SELECT f.sha256 FROM font_files f JOIN font_uploads u ON u.id = f.upload_id JOIN builds b ON b.id = u.build_id WHERE b.name = $1 ORDER BY f.path LIMIT 1", [name])).rows[0].sha256 as string;
     const kestrel = await buildIdByName(sql, "Kestrel");
     const review = (await sql.query("INSERT INTO review_requests (build_id, workshop_id, revision, template_label, rendered) VALUES ($1, $2, 9999, 'matrix', E'one\\ntwo') RETURNING id", [kestrel, ws])).rows[0].id;
-    const ids = { kestrel, review, harrier: await buildIdByName(sql, "Harrier"), template, kestrelSound: await sound("Kestrel"), harrierSound: await sound("Harrier") };
+    const lib = (await sql.query("SELECT id FROM library_presets WHERE workshop_id = $1 AND name = 'Ashfall embers'", [ws])).rows[0].id as string;
+    const libBefore = (await sql.query("SELECT (SELECT count(*) FROM library_versions)::int AS v, (SELECT count(*) FROM library_presets)::int AS p, (SELECT config_version FROM builds WHERE id = $1) AS c", [kestrel])).rows[0];
+    const ids = { kestrel, review, lib, harrier: await buildIdByName(sql, "Harrier"), template, kestrelSound: await sound("Kestrel"), harrierSound: await sound("Harrier") };
     const api = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Origin: BASE_URL } });
     if (who !== "anonymous") await signInRequest(api, LOGINS[who]);
     const failures: string[] = [];
@@ -158,6 +186,8 @@ for (const who of ["anonymous", "owner", "builder", "reviewer", "client"] as Who
     expect(failures).toEqual([]);
     expect((await sql.query("SELECT count(*)::int AS n FROM template_versions WHERE template_id = $1", [template])).rows[0].n).toBe(2);
     expect((await sql.query("SELECT count(*)::int AS n FROM review_comments WHERE request_id = $1", [review])).rows[0].n).toBe(0);
+    // Nothing in the library or the build changed on any of the refused or empty requests.
+    expect((await sql.query("SELECT (SELECT count(*) FROM library_versions)::int AS v, (SELECT count(*) FROM library_presets)::int AS p, (SELECT config_version FROM builds WHERE id = $1) AS c", [kestrel])).rows[0]).toEqual(libBefore);
     await sql.query("DELETE FROM review_requests WHERE id = $1", [review]);
     await sql.query("DELETE FROM templates WHERE id = $1", [template]);
     await api.dispose();

@@ -3,7 +3,7 @@
 // `npm test` starts; the render API is called with a personal token as a script would.
 import type { APIRequestContext, APIResponse } from "@playwright/test";
 import type pg from "pg";
-import { test, expect, buildIdByName, BASE_URL, signInRequest, tokenFor } from "./fixtures";
+import { test, expect, buildIdByName, BASE_URL, signInRequest, tokenFor, A11Y_AT_END } from "./fixtures";
 import { insertTemplate, uniq } from "./template-helpers";
 
 
@@ -57,10 +57,12 @@ test.describe("a runaway template does not hold up the server", () => {
     const runawayMs = performance.now() - t0;
     console.log(`healthz during a runaway render: ${health.map((h) => `${h.ms.toFixed(0)} ms`).join(", ")}; the runaway answered after ${runawayMs.toFixed(0)} ms`);
 
-    for (const h of health) {
-      expect(h.status).toBe(200);
-      expect(h.ms).toBeLessThan(450);
-    }
+    // A render on the event loop would hold the first probe until it stopped, and the runaway's
+    // answer would leave with it: the probes then end after the runaway, not inside it. In the
+    // workers all three end inside it, and the quickest answers at once. (The first probe has
+    // met 300–490 ms on a busy machine, so no single probe carries the bound.)
+    for (const h of health) expect(h.status).toBe(200);
+    expect(Math.min(...health.map((h) => h.ms))).toBeLessThan(300);
     expect(health.reduce((s, h) => s + h.ms, 0) + 50).toBeLessThan(runawayMs);
     expect(answered.status()).toBe(422);
     const errors = (await answered.json()).errors;
@@ -75,13 +77,30 @@ test.describe("a runaway template does not hold up the server", () => {
   test("with every worker busy on a runaway, other renders wait their turn and /healthz still answers", async ({ playwright, sql }) => {
     const config = await kestrelConfig(sql);
     const other = await playwright.request.newContext({ baseURL: BASE_URL });
-    const runaways = [0, 1].map(() => api.post("/api/render", { data: { config, template: { source: RUNAWAY } } }));
+    let firstRunawayDone = Infinity;
+    const runaways = [0, 1].map(() =>
+      api.post("/api/render", { data: { config, template: { source: RUNAWAY } } }).then((r) => {
+        firstRunawayDone = Math.min(firstRunawayDone, performance.now());
+        return r;
+      }),
+    );
     await sleep(50);
     const quick = api.post("/api/render", { data: { config, template: { source: "@( config.presets |> count )@ presets" } } });
-    const health = await timedHealth(other);
-    expect(health.status).toBe(200);
-    // Under 450 ms: a render on the event loop would hold /healthz for the whole 500 ms limit; two busy workers on 2 cores left 343 ms once.
-    expect(health.ms).toBeLessThan(450);
+    // Probes in a row while the runaways run (each runs at least 500 ms). On the event loop the
+    // renders would hold every probe until a runaway stopped (and then the next one); in the
+    // workers a probe answers at once. So: at least one probe answers before either runaway has
+    // answered, and the quickest of those under 450 ms. One probe alone met a busy machine's
+    // scheduling once (490 ms at load 14, with the workers on both cores).
+    const probes: { status: number; ms: number; end: number }[] = [];
+    for (let i = 0; i < 3; i++) {
+      const h = await timedHealth(other);
+      probes.push({ ...h, end: performance.now() });
+    }
+    for (const h of probes) expect(h.status).toBe(200);
+    const during = probes.filter((h) => h.end < firstRunawayDone);
+    console.log(`healthz with every worker on a runaway: ${probes.map((h) => `${h.ms.toFixed(0)} ms${h.end < firstRunawayDone ? "" : " (after a runaway answered)"}`).join(", ")}`);
+    expect(during.length, "no /healthz answered while the runaways ran").toBeGreaterThan(0);
+    expect(Math.min(...during.map((h) => h.ms))).toBeLessThan(450);
     const done = await quick;
     expect(done.status()).toBe(200);
     expect(await done.text()).toBe(`${config.presets.length} presets`);
@@ -150,6 +169,9 @@ test("the template editor page never runs the template on the server, and in the
     // In the browser the draft is checked and previewed in a Web Worker (with the editor's own
     // 2 s clock), so the tab answers while it runs: a script round trip and typing both work.
     await signIn("demo-builder");
+    // The checking state lasts the editor's 2 s clock; a scan right after page.goto could outlast
+    // it on a busy machine, so this page is checked for accessibility as the test ends instead.
+    test.info().annotations.push({ type: A11Y_AT_END, description: "the runaway preview's checking state is brief" });
     await page.goto(`/templates/${id}?build=${kestrel}`);
     await expect(page.getByText("Checking the template…")).toBeVisible();
     const lags: number[] = [];

@@ -38,7 +38,7 @@ export function PowerCard({ power, source, presetNames, rig }: PowerCardProps) {
         </p>
       </div>
       <PowerFigures view={view} />
-      <div className="overflow-x-auto">
+      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Power by preset">
         <table className="table w-full" aria-label="Power by preset">
           <thead>
             <tr>

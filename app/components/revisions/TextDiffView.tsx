@@ -89,7 +89,7 @@ export function TextDiffView({ diff, view }: { diff: TextDiff; view: "unified" |
       <p className="text-sm text-iron-300">
         <span className="text-signal-ok">+{diff.added}</span> <span className="text-signal-error">−{diff.removed}</span> lines
       </p>
-      <div className="overflow-x-auto rounded-md border border-soot-700 p-2">{view === "side" ? <SideBySide hunks={diff.hunks} /> : <Unified hunks={diff.hunks} />}</div>
+      <div className="overflow-x-auto rounded-md border border-soot-700 p-2" tabIndex={0} role="region" aria-label="Text diff">{view === "side" ? <SideBySide hunks={diff.hunks} /> : <Unified hunks={diff.hunks} />}</div>
     </div>
   );
 }

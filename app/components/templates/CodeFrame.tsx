@@ -44,7 +44,7 @@ export function frameText(f: Frame): string {
 export function CodeFrame({ source, error, testId = "code-frame" }: { source: string; error: FrameInput; testId?: string }) {
   const f = codeFrame(source, error);
   return (
-    <pre className="mt-1 overflow-x-auto rounded border border-soot-700 bg-soot-900 px-2 py-1 font-mono text-xs text-iron-300" data-testid={testId} aria-label={`Template line ${f.lines[f.lines.length - 1].n}, column ${error.column}`}>
+    <pre tabIndex={0} className="mt-1 overflow-x-auto rounded border border-soot-700 bg-soot-900 px-2 py-1 font-mono text-xs text-iron-300" data-testid={testId} aria-label={`Template line ${f.lines[f.lines.length - 1].n}, column ${error.column}`}>
       {f.lines.map((l) => (
         <span key={l.n} className={l.current ? "text-iron-100" : "text-iron-400"}>
           {`${l.current ? ">" : " "} ${String(l.n).padStart(f.width)} | ${l.text}`}

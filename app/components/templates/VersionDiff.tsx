@@ -97,7 +97,7 @@ export function VersionDiff({ name, versions, compare, build }: { name: string; 
           <p role="status" data-testid="compare-summary">
             {diff.added} {diff.added === 1 ? "line" : "lines"} added, {diff.removed} {diff.removed === 1 ? "line" : "lines"} removed.
           </p>
-          <div className="overflow-auto rounded-md border border-soot-600 bg-soot-950">
+          <div className="overflow-auto rounded-md border border-soot-600 bg-soot-950" tabIndex={0} role="region" aria-label="Line diff">
             <table className="w-full border-collapse font-mono text-xs" aria-label={`Line changes from version ${from} to version ${to}`}>
               <thead className="sr-only">
                 <tr>

@@ -20,6 +20,10 @@ export const PERMISSIONS = [
   "resolve:comment", // mark a thread resolved (the builder, once it is dealt with)
   "give:verdict", // approve a revision or ask for changes (not on one's own revision, see mayGiveVerdict)
   "be:reviewer", // may be asked to review
+  "view:library", // the workshop's preset library: presets, versions, compares, exports (never clients)
+  "publish:library", // publish a version, create or import a library preset, delete an unused version
+  "apply:library", // add a library preset to a build, apply an update to a build's preset
+  "apply:library-all", // apply an update to every build that uses a preset (the owner)
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -40,8 +44,11 @@ const table: Record<Role, ReadonlySet<Permission>> = {
     "request:review",
     "comment:review",
     "resolve:comment",
+    "view:library",
+    "publish:library",
+    "apply:library",
   ]),
-  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library"]),
   client: new Set(["view:builds", "use:api"]),
 };
 

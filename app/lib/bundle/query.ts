@@ -10,10 +10,20 @@ export const CARD_SIZES = [1, 2, 4, 8, 16, 32, 64, 128, 256] as const;
 export type BundleQuery = { revision: number | null; template: string | null; mode: NameMode; cardGb: number; check: boolean };
 
 const schema = z.object({
-  template: z.string().trim().min(1).max(100).optional(),
-  names: z.enum(["long", "8.3"], { message: "names is long or 8.3" }).default("long"),
-  card: z.coerce.number({ message: "card is the card's size in GB, e.g. 32" }).positive("card is the card's size in GB, e.g. 32").max(2048, "card is at most 2048 GB").default(32),
-  check: z.enum(["1"]).optional(),
+  template: z.string().trim().min(1).max(100).optional().meta({ description: "A template id or built-in name; the build's pinned template when absent." }),
+  names: z.enum(["long", "8.3"], { message: "names is long or 8.3" }).default("long").meta({ description: "Long FAT32 names, or 8.3 names for boards that read only those." }),
+  card: z.coerce
+    .number({ message: "card is the card's size in GB, e.g. 32" })
+    .positive("card is the card's size in GB, e.g. 32")
+    .max(2048, "card is at most 2048 GB")
+    .default(32)
+    .meta({ description: "The card's size in decimal GB, as cards are sold; a bundle that does not fit is refused." }),
+  check: z.enum(["1"]).optional().meta({ description: "1: answer the plan (files, sizes, SHA-256, findings) as JSON instead of the zip." }),
+});
+
+/** The query as the API document shows it: the schema above, and the revision (read by readRevisionNumber). */
+export const bundleQuerySchema = schema.extend({
+  revision: z.string().regex(/^[1-9][0-9]*$/).optional().meta({ description: "A revision number of this build; today's config (the newest revision) when absent." }),
 });
 
 export function readBundleQuery(params: URLSearchParams): Read<BundleQuery> {

@@ -2,19 +2,26 @@
 // same way. A path is written the way a person would point at the value in the JSON, e.g.
 // presets[2].looks.chamber.layers[1].periodMs.
 
+import { z } from "zod";
 import type { RuleCode, Severity } from "./rules/codes";
 
 export type { Severity };
 
-export type Diagnostic = {
-  severity: Severity;
-  /** Stable kebab-case rule code; tools may match on it, so never rename one. */
-  code: string;
-  /** JSON path of the value the diagnostic is about ("" for the whole config). */
-  path: string;
-  message: string;
-  hint: string;
-};
+/** One finding of the validator, as the API answers it (the OpenAPI document shows this schema). */
+export const diagnosticSchema = z
+  .object({
+    severity: z.enum(["error", "warning", "info"]),
+    code: z.string().meta({ description: "Stable kebab-case rule code; tools may match on it, so it is never renamed." }),
+    path: z.string().meta({ description: 'JSON path of the value the diagnostic is about ("" for the whole config), e.g. presets[2].looks.chamber.layers[1].periodMs.' }),
+    message: z.string(),
+    hint: z.string().meta({ description: "What to do about it." }),
+  })
+  .meta({ id: "Diagnostic" });
+
+export type Diagnostic = z.infer<typeof diagnosticSchema>;
+// The schema's severities are the rule set's.
+const _severities: [Severity, Diagnostic["severity"]] extends [Diagnostic["severity"], Severity] ? true : never = true;
+void _severities;
 
 export type PathSegment = string | number;
 

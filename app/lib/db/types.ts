@@ -237,6 +237,45 @@ export interface ReviewCommentsTable {
   created_at: Timestamp;
 }
 
+/** A workshop's library preset (migration 20261203_0100); name, tags and notes follow the latest publish. */
+export interface LibraryPresetsTable {
+  id: Generated<string>;
+  workshop_id: string;
+  name: string;
+  tags: Generated<string[]>;
+  notes: Generated<string>;
+  /** The number of the last publish (versions are never renumbered, even after a delete). */
+  head_version: Generated<number>;
+  created_by: string | null;
+  created_at: Timestamp;
+  published_at: Timestamp;
+}
+
+/** One immutable publish of a library preset: a trigger refuses UPDATE and DELETE (see the migration). */
+export interface LibraryVersionsTable {
+  preset_id: string;
+  version: number;
+  workshop_id: string;
+  /** The preset's body (library/format.ts), stored as JSON. */
+  body: ColumnType<unknown, string, never>;
+  changelog: string;
+  author_id: string | null;
+  created_at: Timestamp;
+  error_count: Generated<number>;
+  warning_count: Generated<number>;
+}
+
+/** Where a build's preset came from: which library preset, which version. */
+export interface BuildPresetOriginsTable {
+  build_id: string;
+  /** The preset's id in the build's config. */
+  preset_id: string;
+  workshop_id: string;
+  library_preset_id: string;
+  library_version: number;
+  added_at: Timestamp;
+}
+
 export interface Database {
   workshops: WorkshopsTable;
   users: UsersTable;
@@ -257,6 +296,9 @@ export interface Database {
   review_requests: ReviewRequestsTable;
   review_reviewers: ReviewReviewersTable;
   review_comments: ReviewCommentsTable;
+  library_presets: LibraryPresetsTable;
+  library_versions: LibraryVersionsTable;
+  build_preset_origins: BuildPresetOriginsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

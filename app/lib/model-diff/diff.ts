@@ -27,40 +27,60 @@ const isObj = (v: unknown): v is Record<string, unknown> => typeof v === "object
 /** Lists whose items hold further keyed lists (a preset's looks hold layers); the others are leaves here. */
 const NESTS = new Set(["presets"]);
 
-/** Keys for every keyed list item on both sides, walking matched items in parallel. */
-function assignKeys(a: unknown, b: unknown, props: string[], keys: WeakMap<object, string>) {
-  if (a === b || typeof a !== "object" || typeof b !== "object" || a === null || b === null) return;
+/**
+ * Keys for every keyed list item on both sides, walking matched items in parallel. Answers b with
+ * every matched item whose content equals its a-side item replaced by that very a-side object
+ * (b itself is not changed): jsondiffpatch then skips the pair at once (same reference) instead
+ * of walking it field by field, which is most of the work when two revisions differ in a few
+ * places. The answer equals b in content, so the delta is the same.
+ */
+function assignKeys(a: unknown, b: unknown, props: string[], keys: WeakMap<object, string>): unknown {
+  if (a === b || typeof a !== "object" || typeof b !== "object" || a === null || b === null) return b;
   if (Array.isArray(a) && Array.isArray(b)) {
     const k = keysFor(props, a, b);
-    if (!k) return; // lists of values or of unkeyed records hold no keyed lists in this model
+    if (!k) return b; // lists of values or of unkeyed records hold no keyed lists in this model
     const byKey = new Map<string, unknown>();
     a.forEach((x, i) => {
       if (x && typeof x === "object") keys.set(x, k.a[i]);
       byKey.set(k.a[i], x);
     });
     const nests = NESTS.has(props[props.length - 1]);
-    b.forEach((x, i) => {
+    return b.map((x, i) => {
       if (x && typeof x === "object") keys.set(x, k.b[i]);
-      if (nests && byKey.has(k.b[i])) assignKeys(byKey.get(k.b[i]), x, props, keys);
+      if (!byKey.has(k.b[i])) return x;
+      const y = byKey.get(k.b[i]);
+      if (y && typeof y === "object" && JSON.stringify(y) === JSON.stringify(x)) return y;
+      return nests ? assignKeys(y, x, props, keys) : x;
     });
-    return;
   }
-  if (isObj(a) && isObj(b)) for (const key of Object.keys(a)) if (key in b && typeof a[key] === "object") assignKeys(a[key], b[key], [...props, key], keys);
+  if (isObj(a) && isObj(b)) {
+    let out: Record<string, unknown> | null = null;
+    for (const key of Object.keys(a)) {
+      if (!(key in b) || typeof a[key] !== "object") continue;
+      const shared = assignKeys(a[key], b[key], [...props, key], keys);
+      if (shared !== b[key]) (out ??= { ...b })[key] = shared;
+    }
+    if (out && keys.has(b)) keys.set(out, keys.get(b)!);
+    return out ?? b;
+  }
+  return b;
 }
 
 function differ(a: unknown, b: unknown) {
   const keys = new WeakMap<object, string>();
-  assignKeys(a, b, [], keys);
-  return create({
+  const shared = assignKeys(a, b, [], keys);
+  const differ = create({
     objectHash: (item: object, index?: number) => keys.get(item) ?? (typeof (item as { id?: unknown }).id === "string" ? `id:${(item as { id: string }).id}` : `@${index}`),
     arrays: { detectMove: true, includeValueOnMove: false },
     cloneDiffValues: false,
   });
+  return { differ, shared };
 }
 
 /** The structural delta from a to b (undefined when they are the same). */
 export function modelDelta(a: unknown, b: unknown): Delta {
-  return differ(a, b).diff(a, b);
+  const { differ: d, shared } = differ(a, b);
+  return d.diff(a, shared);
 }
 
 /** a with the delta applied; a itself is not changed. */

@@ -21,7 +21,36 @@ export type Conflict = {
 export type MergeResult<T> = { merged: T; conflicts: Conflict[] };
 
 const isObj = (v: unknown): v is Record<string, unknown> => typeof v === "object" && v !== null && !Array.isArray(v);
-const same = (x: unknown, y: unknown) => x === y || stableJson(x) === stableJson(y);
+/**
+ * Equal as stable JSON (object keys in any order, undefined fields absent), compared in place:
+ * the merge asks this at every level, and building the JSON text each time made a 20-layer
+ * merge cost milliseconds.
+ */
+function same(x: unknown, y: unknown): boolean {
+  if (x === y) return true;
+  if (typeof x !== "object" || typeof y !== "object" || x === null || y === null) {
+    // Numbers JSON cannot write (NaN, ±Infinity) write as null: equal the way stableJson saw them.
+    return typeof x === "number" || typeof y === "number" ? stableJson(x) === stableJson(y) : false;
+  }
+  if (Array.isArray(x) !== Array.isArray(y)) return false;
+  if (Array.isArray(x)) {
+    const ya = y as unknown[];
+    if (x.length !== ya.length) return false;
+    for (let i = 0; i < x.length; i++) if (!same(x[i] === undefined ? null : x[i], ya[i] === undefined ? null : ya[i])) return false;
+    return true;
+  }
+  const xo = x as Record<string, unknown>;
+  const yo = y as Record<string, unknown>;
+  let n = 0;
+  for (const k of Object.keys(xo)) {
+    if (xo[k] === undefined) continue;
+    n++;
+    if (!Object.hasOwn(yo, k) || !same(xo[k], yo[k])) return false;
+  }
+  let m = 0;
+  for (const k of Object.keys(yo)) if (yo[k] !== undefined) m++;
+  return n === m;
+}
 const GONE = Symbol("gone");
 
 type Ctx = { choices: Record<string, Side>; conflicts: Conflict[]; root: { mine: unknown; theirs: unknown } };

@@ -109,6 +109,11 @@ export function apiErrors(r: Extract<RenderOutcome, { ok: false }>, limits: Part
 }
 
 export type RenderError = ApiError;
+
+/** The message of a 422 for a template that did not render (the positioned errors ride along). */
+export function renderFailedMessage(total: number): string {
+  return `The template did not render: ${total} error${total === 1 ? "" : "s"}; each is listed with its line and column.`;
+}
 /** A posted config without the model's shape: the same 422 shape as a template error, `path` naming the field. */
 export type ConfigError = { stage: "config"; message: string; line: null; column: null; path: string };
 

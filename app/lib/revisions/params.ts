@@ -20,18 +20,18 @@ export function readRevisionNumber(raw: string | null | undefined, name: string)
 
 export const REVISION_PAGE_SIZES = [10, 25, 50, 100] as const;
 
-const listSchema = z.object({
+export const revisionListQuerySchema = z.object({
   sort: z.enum(["number", "author", "errors", "warnings"]).default("number"),
   dir: z.enum(["asc", "desc"]).default("desc"),
   page: z.coerce.number().int().min(1).max(100000).default(1),
   perPage: z.coerce.number().int().refine((n) => (REVISION_PAGE_SIZES as readonly number[]).includes(n), "perPage is one of 10, 25, 50, 100").default(25),
   author: z.union([z.literal("none"), z.uuid()]).optional(),
 });
-export type RevisionListQuery = z.infer<typeof listSchema>;
+export type RevisionListQuery = z.infer<typeof revisionListQuerySchema>;
 
 export function readListQuery(params: URLSearchParams): Read<RevisionListQuery> {
   const raw = Object.fromEntries([...params.entries()].filter(([, v]) => v !== ""));
-  const r = listSchema.safeParse(raw);
+  const r = revisionListQuerySchema.safeParse(raw);
   if (!r.success) return { ok: false, error: r.error.issues.map((i) => `${i.path.join(".") || "query"}: ${i.message}`).join("; ") };
   return { ok: true, value: r.data };
 }

@@ -2,12 +2,27 @@
 // once produced 19,872 errors (2.5 MB) of 3 kinds. Answers carry the first MAX_LISTED errors,
 // the total, and the distinct kinds with their counts, so nothing is hidden and nothing is huge.
 
+import { z } from "zod";
+
 /** How many errors an answer lists one by one. */
 export const MAX_LISTED = 50;
 /** How many distinct kinds an answer names. */
 export const MAX_KINDS = 20;
 
 export type ErrorKind = { kind: string; count: number };
+
+/** An error with its place: a template's line and column, or (stage "config") a model path with no line. */
+export const positionedErrorSchema = z
+  .object({
+    stage: z.string().meta({ description: "tokenize, parse, check, render, or config (a posted config without the model's shape)" }),
+    message: z.string(),
+    line: z.number().int().nullable(),
+    column: z.number().int().nullable(),
+    path: z.string().optional().meta({ description: "For stage config: the JSON path at fault." }),
+  })
+  .meta({ id: "PositionedError" });
+
+export const errorKindSchema = z.object({ kind: z.string(), count: z.number().int() }).meta({ id: "ErrorKind" });
 export type CappedList<E> = { errors: E[]; total: number; kinds: ErrorKind[] };
 
 /**

@@ -9,7 +9,7 @@ import { data, type MiddlewareFunction } from "react-router";
 import { crossSiteReason } from "./origin";
 import { env } from "../env.server";
 import { badTextReason, findBadFormField } from "../input/edges";
-import { json } from "./http.server";
+import { apiError } from "./http.server";
 import { urlEncodedFieldWithNul } from "./read-form.server";
 
 /** Forms larger than this are left to their route, which caps its own body (a template is ≤ 1 MB). */
@@ -18,7 +18,7 @@ export const FORM_CHECK_BYTES = 4 * 1024 * 1024;
 const isApi = (url: URL) => url.pathname === "/api" || url.pathname.startsWith("/api/");
 
 function refuse(url: URL, status: number, message: string, field?: string): never {
-  if (isApi(url)) throw json({ error: message, ...(field !== undefined ? { field } : {}) }, { status });
+  if (isApi(url)) throw apiError(status, message, field !== undefined ? { field } : {});
   throw data({ message, ...(field !== undefined ? { field } : {}) }, { status });
 }
 

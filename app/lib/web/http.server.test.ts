@@ -23,7 +23,9 @@ describe("one HTTP module", () => {
 
   it("answers failures as JSON for the API and as text for downloads, and lets bugs through", async () => {
     const api = await apiAnswer(async () => fail(409, "stale"));
-    expect([api.status, api.headers.get("Content-Type"), await api.json()]).toEqual([409, "application/json; charset=utf-8", { error: "stale" }]);
+    expect([api.status, api.headers.get("Content-Type"), await api.json()]).toEqual([409, "application/json; charset=utf-8", { status: 409, error: "stale" }]);
+    const detailed = await apiAnswer(async () => fail(422, "not valid", { diagnostics: [{ code: "x" }] }));
+    expect([detailed.status, await detailed.json()]).toEqual([422, { status: 422, error: "not valid", diagnostics: [{ code: "x" }] }]);
     const plain = await textAnswer(async () => fail(422, "too different"));
     expect([plain.status, plain.headers.get("Content-Type"), plain.headers.get("Cache-Control"), await plain.text()]).toEqual([422, "text/plain; charset=utf-8", "no-store", "too different\n"]);
     await expect(textAnswer(async () => Promise.reject(new Error("bug")))).rejects.toThrow("bug");

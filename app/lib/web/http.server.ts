@@ -1,14 +1,40 @@
 // The one HTTP module: answers with the right status and a message a person can read. Pages throw
 // `fail(...)` (shown by the error boundaries); `failureOf` reads such a throw back, and
 // `apiAnswer` / `textAnswer` turn it into a JSON or plain-text answer for scripts and downloads.
+// Every API error has one shape, `ApiErrorBody` (documented once in app/lib/api-doc, decision 020).
 import { data } from "react-router";
+import type { z } from "zod";
 import { DATABASE_DOWN_MESSAGE, isDatabaseUnavailable } from "../db/unavailable";
 
-export type Failure = { message: string };
+/**
+ * What may ride along with an API error, where it applies: the form field or query parameter at
+ * fault, the validator's diagnostics, positioned template/config errors (the first 50, their
+ * total and kinds), the bundle's findings, the version a stale save should start from.
+ */
+export type ApiErrorDetails = {
+  field?: string;
+  diagnostics?: readonly object[];
+  errors?: readonly object[];
+  total?: number;
+  kinds?: readonly object[];
+  findings?: readonly object[];
+  currentVersion?: number | null;
+};
 
-/** Stop a loader or action with a status and a message meant for a person. */
-export function fail(status: number, message: string): never {
-  throw data<Failure>({ message }, { status });
+/** The one error shape of the API: the HTTP status again, a message for a person, and the details that apply. */
+export type ApiErrorBody = { status: number; error: string } & ApiErrorDetails;
+
+export type Failure = { message: string; details?: ApiErrorDetails };
+
+/** Stop a loader or action with a status and a message meant for a person (and, for the API, details). */
+export function fail(status: number, message: string, details?: ApiErrorDetails): never {
+  throw data<Failure>(details ? { message, details } : { message }, { status });
+}
+
+/** An API error answer in the one shape. */
+export function apiError(status: number, message: string, details: ApiErrorDetails = {}, init: ResponseInit = {}): Response {
+  const body: ApiErrorBody = { status, error: message, ...details };
+  return json(body, { ...init, status });
 }
 
 export function json(body: unknown, init: ResponseInit = {}): Response {
@@ -16,6 +42,15 @@ export function json(body: unknown, init: ResponseInit = {}): Response {
   headers.set("Content-Type", "application/json; charset=utf-8");
   headers.set("Cache-Control", "no-store");
   return new Response(JSON.stringify(body), { ...init, headers });
+}
+
+/**
+ * A JSON answer whose body must have the documented shape: `schema` is the zod schema the API
+ * document shows for this answer (app/lib/api-doc/shapes.ts), checked by the compiler here and
+ * against the document in the tests.
+ */
+export function jsonAs<S extends z.ZodType>(_schema: S, body: z.input<S>, init: ResponseInit = {}): Response {
+  return json(body, init);
 }
 
 /** Plain text (a patch, a rendered header) that is never cached. */
@@ -26,7 +61,7 @@ export function text(body: string, init: ResponseInit = {}): Response {
   return new Response(body, { ...init, headers });
 }
 
-export type ThrownFailure = { status: number; message: string; headers?: HeadersInit };
+export type ThrownFailure = { status: number; message: string; headers?: HeadersInit; details?: ApiErrorDetails };
 
 /**
  * A failure thrown with `fail(...)` or the router's `data(..., { status })` (the server-side
@@ -36,8 +71,10 @@ export type ThrownFailure = { status: number; message: string; headers?: Headers
 export function failureOf(e: unknown): ThrownFailure | null {
   if (typeof e !== "object" || e === null || (e as { type?: string }).type !== "DataWithResponseInit") return null;
   const d = e as { data?: unknown; init?: ResponseInit | null };
-  const message = (d.data as Partial<Failure> | undefined)?.message;
-  return { status: d.init?.status ?? 500, message: typeof message === "string" ? message : "Request failed", headers: d.init?.headers };
+  const { message, details } = (d.data ?? {}) as Partial<Failure>;
+  const f: ThrownFailure = { status: d.init?.status ?? 500, message: typeof message === "string" ? message : "Request failed", headers: d.init?.headers };
+  if (details && typeof details === "object") f.details = details;
+  return f;
 }
 
 /**
@@ -60,16 +97,16 @@ export async function apiAnswer(run: () => Promise<Response>): Promise<Response>
     return await run();
   } catch (e) {
     if (e instanceof Response) {
-      if (e.status >= 300 && e.status < 400) return json({ error: "Sign in or send a valid bearer token." }, { status: 401 });
+      if (e.status >= 300 && e.status < 400) return apiError(401, "Sign in or send a valid bearer token.");
       return e;
     }
     const f = failureOf(e);
-    if (f) return json({ error: f.message }, { status: f.status, headers: f.headers });
+    if (f) return apiError(f.status, f.message, f.details, { headers: f.headers });
     // A connection error that did not come through the app's pool (db/outage.server.ts maps those).
-    if (isDatabaseUnavailable(e)) return json({ error: DATABASE_DOWN_MESSAGE }, { status: 503, headers: { "Retry-After": "10" } });
-    if (isDataException(e)) return json({ error: "The request holds a value the database cannot store (text with a NUL character or broken Unicode, or a number out of range); nothing was changed." }, { status: 400 });
+    if (isDatabaseUnavailable(e)) return apiError(503, DATABASE_DOWN_MESSAGE, {}, { headers: { "Retry-After": "10" } });
+    if (isDataException(e)) return apiError(400, "The request holds a value the database cannot store (text with a NUL character or broken Unicode, or a number out of range); nothing was changed.");
     console.error(e);
-    return json({ error: "The server hit an unexpected problem; nothing was changed. Try again, and tell the workshop owner if it keeps happening." }, { status: 500 });
+    return apiError(500, "The server hit an unexpected problem; nothing was changed. Try again, and tell the workshop owner if it keeps happening.");
   }
 }
 

@@ -1,0 +1,35 @@
+// GET /api/presets: the workshop's library, paged (?q= name, ?tag=, ?page=, ?perPage=).
+// POST /api/presets: a new library preset ({ preset, changelog }, 201) or an import of a
+// "hiltbench.preset/1" document (201 with the new preset's id).
+import { requireViewer } from "~/lib/auth/auth.server";
+import { listLibraryFor, publishFor } from "~/lib/library/service.server";
+import { importFor, isPresetDocument, MAX_PRESET_DOCUMENT_BYTES } from "~/lib/library/exchange.server";
+import { createBody, firstIssue, parseListQuery } from "~/lib/library/requests";
+import { readJsonBody } from "~/lib/web/body.server";
+import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import type { Route } from "./+types/api.presets";
+
+export function loader({ request }: Route.LoaderArgs) {
+  return apiAnswer(async () => {
+    const v = await requireViewer(request, "view:library");
+    const query = parseListQuery(new URL(request.url));
+    const { rows, total } = await listLibraryFor(v, query);
+    return json({ total, page: query.page, perPage: query.perPage, presets: rows.map((r) => ({ ...r, url: `/api/presets/${r.id}` })) });
+  });
+}
+
+export function action({ request }: Route.ActionArgs) {
+  return apiAnswer(async () => {
+    const v = await requireViewer(request, "publish:library");
+    if (request.method !== "POST") fail(405, "Create or import a library preset with POST.");
+    const body = await readJsonBody(request, MAX_PRESET_DOCUMENT_BYTES, "The preset document is too large; a library preset file is at most 1 MB.");
+    if (isPresetDocument(body)) {
+      const r = await importFor(v, body);
+      return json(r.body, { status: r.status });
+    }
+    const parsed = createBody.safeParse(body);
+    if (!parsed.success) fail(400, firstIssue(parsed.error));
+    const r = await publishFor(v, { presetId: null, baseVersion: null, body: parsed.data.preset, changelog: parsed.data.changelog });
+    return json(r.body, { status: r.status });
+  });
+}
