@@ -19,6 +19,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return openBundlePage(v, b, new URL(request.url).searchParams);
 }
 
+const share = (used: number, of: number) => `${((100 * used) / of).toLocaleString("en", { maximumFractionDigits: used / of < 0.01 ? 2 : 0 })} %`;
+
 export default function BundlePage({ loaderData }: Route.ComponentProps) {
   const page = loaderData;
   const { plan, problem } = page;
@@ -58,9 +60,9 @@ export default function BundlePage({ loaderData }: Route.ComponentProps) {
                 {formatBytes(plan.cardUsedBytes)} in 32 KiB clusters, of {formatBytes(plan.cardBytes)} ({plan.cardBytes.toLocaleString("en")} bytes, decimal as cards are sold)
               </dd>
             </dl>
-            <meter className="h-2 w-full" min={0} max={plan.cardBytes} high={plan.cardBytes * 0.97} optimum={0} value={Math.min(plan.cardUsedBytes, plan.cardBytes)} aria-label="Space the bundle takes on the card">
-              {Math.round((100 * plan.cardUsedBytes) / plan.cardBytes)} %
-            </meter>
+            <div className="h-2 w-full overflow-hidden rounded bg-soot-700" role="img" aria-label={`The bundle takes ${share(plan.cardUsedBytes, plan.cardBytes)} of the card`}>
+              <div className={`h-full ${plan.cardUsedBytes > plan.cardBytes * 0.97 ? "bg-signal-error" : "bg-ember-500"}`} style={{ width: `${Math.min(100, Math.max(0.5, (100 * plan.cardUsedBytes) / plan.cardBytes))}%` }} />
+            </div>
             <p className="text-xs text-iron-400">The handoff sheet on the card (handoff.html) carries the charging and battery cautions for the client.</p>
           </section>
 

@@ -12,7 +12,8 @@ import type pg from "pg";
 import { synthFont } from "../../app/lib/audio/synth";
 import { demoConfig } from "../../app/lib/config/demo";
 import { buildZip } from "../../app/lib/fonts/zip-build";
-import { test, expect, BASE_URL } from "./fixtures";
+import { expectAccessible } from "./a11y";
+import { test, expect, A11Y_CHECK, BASE_URL } from "./fixtures";
 
 test.describe.configure({ timeout: 120_000 });
 const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
@@ -56,6 +57,8 @@ test("a builder reads the card's files and findings, picks a revision and downlo
   await expect(clash).toContainText('both become "NORTHLIG/SWING/LOWPITCH.WAV"');
   await expect(page.getByRole("button", { name: "Download the card zip" })).toBeDisabled();
   await expect(page.locator("#bundle-blocked")).toContainText("cannot be built until this error is fixed");
+  await page.getByText(/notes: names written differently on the card/).click();
+  if (A11Y_CHECK) await expectAccessible(page, "with the 8.3 findings and notes open");
 
   // Revision 1 had no Northlight files yet.
   await page.getByLabel("Names on the card").selectOption("long");
@@ -70,6 +73,15 @@ test("a builder reads the card's files and findings, picks a revision and downlo
   await page.getByLabel("Card size").selectOption("1");
   await page.getByRole("button", { name: "Show the card" }).click();
   await expect(page.getByTestId("bundle-summary")).toContainText("of 1 GB (1,000,000,000 bytes, decimal as cards are sold)");
+  // On a slow link the progress bar shows, and a cancelled download says so.
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 20, downloadThroughput: 40 * 1024, uploadThroughput: -1 });
+  await page.getByRole("button", { name: "Download the card zip" }).click();
+  await expect(page.getByRole("progressbar", { name: "Downloading the card zip" })).toBeVisible();
+  await page.getByRole("button", { name: "Cancel" }).click();
+  await expect(page.getByRole("alert")).toHaveText("Download cancelled.");
+  await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+
   const listed = await table.locator("tbody tr").evaluateAll((rows) => rows.map((r) => [...r.querySelectorAll("td")].map((td) => td.textContent!.trim())));
   const downloading = page.waitForEvent("download");
   await page.getByRole("button", { name: "Download the card zip" }).click();
@@ -136,6 +148,12 @@ test("a card is checked in the browser: missing, extra and changed files; a matc
   await expect(changed.getByRole("listitem").filter({ hasText: "northlight/hum.wav" })).toContainText("has the same size but other content");
   await expect(changed.getByRole("listitem").filter({ hasText: "northlight/ignite.wav" })).toContainText("bytes; the bundle's is");
   await expect(result).toContainText("Left out: 1 file(s) computers add to cards by themselves.");
+  if (A11Y_CHECK) await expectAccessible(page, "with a card's differences listed");
+
+  // Not a zip at all (a picture named .zip): said plainly, nothing crashes.
+  const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52]);
+  await page.getByLabel("The card's files or a zip of them").setInputFiles({ name: "card.zip", mimeType: "application/zip", buffer: png });
+  await expect(page.getByRole("alert")).toContainText("Could not read the card's files:");
 
   // The card's folder as the computer shows it (its own top folder name), every file intact.
   const dir = mkdtempSync(path.join(tmpdir(), "hb-card-"));

@@ -153,6 +153,24 @@ describe.runIf(hasDatabase)("font uploads (PostgreSQL, disk storage)", () => {
     await expectRefused(zipReq([{ name: "hum.wav", data: new Uint8Array(3 * MB), deflate: true }]), /would unpack to 3 MB; a file may have at most 2 MB/);
   });
 
+  it("refuses a small zip whose entries claim 10 GB in all, at the real caps, before inflating a byte", async () => {
+    // 200 entries that each claim 52 MB (under the 60 MB a file may have): 10.4 GB in all, in a
+    // zip of a few kilobytes. The claimed total is refused from the table of contents alone.
+    const DEFAULTS: UploadLimits = { maxFileBytes: 60 * MB, maxTotalBytes: 1024 * MB, maxFiles: 2000 };
+    const entries = Array.from({ length: 200 }, (_, i) => ({ name: `h${i}.wav`, data: ok.subarray(0, 1), deflate: true, claimSize: 52 * MB }));
+    expect(buildZip(entries).length).toBeLessThan(24 * 1024);
+    await expectRefused(zipReq(entries), /would unpack to more than 1,024 MB; that is more than an upload may hold/, DEFAULTS);
+  });
+
+  it("never opens a zip inside a zip (the nested zip-of-zips bomb): inner archives are left out", async () => {
+    // Each level holds the next one stored; the innermost is 3 MB of silence, about 3 KB deflated.
+    const inner = buildZip([{ name: "hum.wav", data: new Uint8Array(3 * MB), deflate: true }]);
+    const middle = buildZip(Array.from({ length: 8 }, (_, i) => ({ name: `level2-${i}.zip`, data: inner })));
+    const outer = buildZip([{ name: "level1.zip", data: middle, deflate: true }]);
+    expect(outer.length).toBeLessThan(8 * 1024);
+    await expectRefused(() => formRequest([{ name: "font.zip", bytes: outer }]), /holds no WAV files \(only level1\.zip\)/);
+  });
+
   it("refuses overlapping entries (the zip-bomb trick of sharing compressed bytes)", async () => {
     await expectRefused(zipReq([{ name: "a.wav", data: ok }, { name: "b.wav", data: ok }], { overlapSecondOntoFirst: true }), /entries overlap/);
   });
