@@ -88,6 +88,7 @@ test("update available: read the library's changes, pick a side of the collision
   await page.goto(`/builds/${id}`);
   await expect(page.getByTestId("overview-updates")).toContainText("Ashfall: Ashfall embers v1 → v2");
   await page.getByTestId("overview-updates").getByRole("link", { name: "See the changes on Looks" }).click();
+  await expect(page.getByTestId("build-update-badge")).toContainText("Update available from the library (1 preset)");
   const update = page.getByTestId("update-available");
   await expect(update).toContainText("Update available: Ashfall — Ashfall embers v1 → v2");
   await expect(update.getByTestId("library-changes")).toContainText("layer 2 (drift) added");
