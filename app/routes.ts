@@ -38,6 +38,7 @@ export default [
     route("templates/:templateId", "routes/templates.$templateId.tsx"),
     route("library", "routes/library._index.tsx"),
     route("library/:presetId", "routes/library.$presetId.tsx"),
+    route("library/:presetId/edit", "routes/library.$presetId.edit.tsx"),
   ]),
 
   ...prefix("api", [

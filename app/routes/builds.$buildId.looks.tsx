@@ -73,8 +73,10 @@ export default function LooksPage({ loaderData }: Route.ComponentProps) {
   const { buildId, config, version, canEdit, library, canApply, canPublish } = loaderData;
   const result = useActionData<typeof action>() as Answer;
   // A new version (another tab saved, or a reload) starts the editor afresh.
+  // The editor first (its pictures load lazily, as they scroll into view); the library below it.
   return (
     <div className="space-y-6">
+      <LookEditor key={`${buildId}-${version}`} buildId={buildId} initial={config} version={version} canEdit={canEdit} />
       {library ? (
         <LibraryPanel
           version={version}
@@ -88,7 +90,6 @@ export default function LooksPage({ loaderData }: Route.ComponentProps) {
           answer={result}
         />
       ) : null}
-      <LookEditor key={`${buildId}-${version}`} buildId={buildId} initial={config} version={version} canEdit={canEdit} />
     </div>
   );
 }

@@ -1,10 +1,11 @@
-import { NavLink, Outlet } from "react-router";
+import { Link, NavLink, Outlet } from "react-router";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { STATUS_LABELS } from "~/lib/forms/build-forms";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { can } from "~/lib/auth/permissions";
 import { ErrorPage } from "~/components/ErrorPage";
 import { describeError, errorTitle } from "~/lib/web/errors";
+import { outdatedPresetsFor } from "~/lib/library/service.server";
 import type { Route } from "./+types/builds.$buildId";
 
 export const meta: Route.MetaFunction = ({ data, error }) => [{ title: error ? errorTitle(error) : `${data?.build.name ?? "Build"} · Hiltbench` }];
@@ -17,6 +18,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     canEdit: can(v.role, "edit:build"),
     canViewRevisions: can(v.role, "view:revisions"),
     canViewReviews: can(v.role, "view:reviews"),
+    // Presets a version behind the library (a badge on every section of the build).
+    outdated: can(v.role, "view:library") ? (await outdatedPresetsFor(v, b)).length : 0,
   };
 }
 
@@ -37,7 +40,7 @@ const SECTIONS = [
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
-  const { build, canViewRevisions, canViewReviews } = loaderData;
+  const { build, canViewRevisions, canViewReviews, outdated } = loaderData;
   return (
     <div>
       <div className="flex flex-wrap items-baseline gap-3">
@@ -45,6 +48,11 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <span className="rounded bg-soot-700 px-2 py-0.5 text-xs" data-testid="build-status">{STATUS_LABELS[build.status]}</span>
         {build.archived ? <span className="rounded bg-soot-800 px-2 py-0.5 text-xs text-iron-400">Archived</span> : null}
         <span className="text-iron-400">{build.client_name}</span>
+        {outdated ? (
+          <Link to="looks#library-h" className="rounded border border-signal-warning px-2 py-0.5 text-xs no-underline" data-testid="build-update-badge">
+            Update available from the library ({outdated} preset{outdated === 1 ? "" : "s"})
+          </Link>
+        ) : null}
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
         {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews)).map(([to, label]) => (

@@ -83,7 +83,10 @@ export default function LibraryPresetPage({ loaderData }: Route.ComponentProps) 
       <p>
         <Link to="/library">← Library</Link>
       </p>
-      <h1>{preset.name}</h1>
+      <div className="flex flex-wrap items-baseline gap-3">
+        <h1>{preset.name}</h1>
+        <Link to={`/library/${preset.id}/edit`}>{canPublish ? "Edit in the look editor" : "Open in the look editor"}</Link>
+      </div>
       <p className="text-iron-300">
         {preset.tags.length ? `Tags: ${preset.tags.join(", ")} · ` : ""}latest v{preset.latest}
         {preset.notes ? ` · ${preset.notes}` : ""}

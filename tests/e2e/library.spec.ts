@@ -88,6 +88,7 @@ test("update available: read the library's changes, pick a side of the collision
   await page.goto(`/builds/${id}`);
   await expect(page.getByTestId("overview-updates")).toContainText("Ashfall: Ashfall embers v1 → v2");
   await page.getByTestId("overview-updates").getByRole("link", { name: "See the changes on Looks" }).click();
+  await expect(page.getByTestId("build-update-badge")).toContainText("Update available from the library (1 preset)");
   const update = page.getByTestId("update-available");
   await expect(update).toContainText("Update available: Ashfall — Ashfall embers v1 → v2");
   await expect(update.getByTestId("library-changes")).toContainText("layer 2 (drift) added");
@@ -164,4 +165,35 @@ test("export a preset file and import it; a file of another format is refused wi
   await expect(page.getByTestId("import-ok")).toContainText(`Swell copy ${s}`);
   await page.getByTestId("import-ok").getByRole("link").click();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Swell copy ${s}`);
+});
+
+test("a library preset in the look editor on a stand-in rig: choose the pixels, edit, publish a version", async ({ page, signIn, sql }) => {
+  const s = stamp();
+  const token = await tokenFor(sql, "demo-builder", `lib-e-${s}`);
+  const body = { ...bodyFromBuildPreset(demoConfig(), "ashfall")!.body, name: `Forge ${s}` };
+  const made = await api(token, "POST", "/api/presets", { changelog: "First", preset: body });
+  expect(made.status).toBe(201);
+  const lib = made.body.presetId as string;
+  await signIn("demo-builder");
+  await page.goto(`/library/${lib}`);
+  await page.getByRole("link", { name: "Edit in the look editor" }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Edit Forge ${s}`);
+  await page.getByLabel("Pixels, main blade (made on 132)").fill("100");
+  await page.getByRole("button", { name: "Change the stand-in rig" }).click();
+  await expect(page).toHaveURL(/px\.main-blade=100/);
+  await expect(page.getByRole("region", { name: `Live preview of Forge ${s}` })).toBeVisible();
+  await page.getByLabel("Preset name").fill(`Forge ${s} II`);
+  await page.getByLabel("What changed").fill("Renamed, made on a 100-pixel blade");
+  await page.getByRole("button", { name: "Save", exact: true }).click();
+  await expect(page.getByTestId("save-message")).toContainText("Published as version 2");
+  const v2 = (await sql.query("SELECT body, changelog FROM library_versions WHERE preset_id = $1 AND version = 2", [lib])).rows[0];
+  expect(v2.changelog).toBe("Renamed, made on a 100-pixel blade");
+  expect(v2.body.name).toBe(`Forge ${s} II`);
+  expect(v2.body.looks["main-blade"].pixels).toBe(100);
+  expect(v2.body.looks["main-blade"].layers.find((l: { kind: string; event?: string }) => l.kind === "hold" && l.event === "lockup").widthPixels).toBe(17);
+  // A second save from the same page builds on version 2; a stale one would be refused.
+  await page.getByLabel("Preset name").fill(`Forge ${s} III`);
+  await page.getByLabel("What changed").fill("Renamed again");
+  await page.getByRole("button", { name: "Save", exact: true }).click();
+  await expect(page.getByTestId("save-message")).toContainText("Published as version 3");
 });

@@ -118,6 +118,8 @@ const CASES: Case[] = [
   { route: "/library/:presetId", method: "GET", path: (i) => `/library/${i.lib}`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
   { route: "/library/:presetId", method: "GET", path: (i) => `/library/${i.lib}?compare=x`, expect: { ...staff("bad", "403"), reviewer: "bad" } },
   { route: "/library/:presetId", method: "POST", path: (i) => `/library/${i.lib}`, form: { intent: "delete-version", version: "" }, expect: staff("bad", "403") },
+  { route: "/library/:presetId/edit", method: "GET", path: (i) => `/library/${i.lib}/edit`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/library/:presetId/edit", method: "GET", path: (i) => `/library/${i.lib}/edit?px.main-blade=0`, expect: { ...staff("bad", "403"), reviewer: "bad" } },
   { route: "/library/:presetId", method: "POST", path: (i) => `/library/${i.lib}`, form: { intent: "dry-run" }, expect: { anonymous: "login", owner: "ok", builder: "403", reviewer: "403", client: "403" } },
   { route: "/builds/:buildId/looks", method: "POST", path: (i) => `/builds/${i.kestrel}/looks`, form: { intent: "add-from-library" }, expect: staff("bad", "403") },
   { route: "/api/presets", method: "GET", path: () => "/api/presets", expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },

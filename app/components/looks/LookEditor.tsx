@@ -21,7 +21,23 @@ import { useLiveChecks } from "./useLiveChecks";
 
 type SaveMessage = { tone: "ok" | "error" | "info"; text: string } | null;
 
-export function LookEditor({ buildId, initial, version: initialVersion, canEdit }: { buildId: string; initial: Config; version: number; canEdit: boolean }) {
+/** Another place to save to (a library preset): answers like the config PUT, in short. */
+export type SaveWith = (config: Config, note: string, version: number) => Promise<{ ok: true; version: number; text: string } | { ok: false; status: number; error?: string; diagnostics?: Diagnostic[] }>;
+
+export function LookEditor({
+  buildId,
+  initial,
+  version: initialVersion,
+  canEdit,
+  saveWith,
+}: {
+  buildId: string;
+  initial: Config;
+  version: number;
+  canEdit: boolean;
+  /** Save somewhere else than the build's config (the library's stand-in rig); no pictures then. */
+  saveWith?: SaveWith;
+}) {
   const [state, rawDispatch] = useReducer(editorReducer, initial, initEditor);
   const dispatch = useCallback((a: EditorAction) => rawDispatch(a), []);
   const [version, setVersion] = useState(initialVersion);
@@ -50,6 +66,19 @@ export function LookEditor({ buildId, initial, version: initialVersion, canEdit 
     setSaving(true);
     setMessage({ tone: "info", text: "Saving…" });
     try {
+      if (saveWith) {
+        const r = await saveWith(sent, note, version);
+        if (r.ok) {
+          setVersion(r.version);
+          dispatch({ type: "saved", config: sent });
+          setNote("");
+          setMessage({ tone: "ok", text: r.text });
+        } else if (r.status === 422 && r.diagnostics?.length) {
+          checks.accept(sent, r.diagnostics);
+          setMessage({ tone: "error", text: `Not saved: ${r.error ?? "the preset has errors"}` });
+        } else setMessage({ tone: "error", text: `Not saved: ${r.error ?? `the server answered ${r.status}`}` });
+        return;
+      }
       const res = await fetch(`/api/builds/${buildId}/config`, {
         method: "PUT",
         headers: { "Content-Type": "application/json", Accept: "application/json" },
@@ -233,7 +262,7 @@ export function LookEditor({ buildId, initial, version: initialVersion, canEdit 
                       checks={index}
                       dispatch={dispatch}
                       pictureUrl={
-                        state.saved.presets.some((p) => p.id === preset.id && p.looks[c.id])
+                        !saveWith && state.saved.presets.some((p) => p.id === preset.id && p.looks[c.id])
                           ? `/api/builds/${buildId}/looks.png?preset=${encodeURIComponent(preset.id)}&channel=${encodeURIComponent(c.id)}&v=${version}`
                           : null
                       }
