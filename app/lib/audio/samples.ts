@@ -2,7 +2,7 @@
 // through typed arrays where the bytes are aligned (the fast path) and byte by byte otherwise;
 // a sample split between two pieces is carried over. 8-bit samples are unsigned (silence 128),
 // wider ones signed, floats are full scale at ±1 (RIFF/WAVE specification).
-import { simd16, simdPeak32 } from "./simd16";
+import { simd16, simd24, simdPeak32 } from "./simd";
 import type { WavFormat } from "./types";
 
 export type SampleScanner = {
@@ -105,6 +105,13 @@ export function createSampleScanner(format: WavFormat): SampleScanner | null {
       if (lo === 0 || hi === 255) for (let k = from; k < to; k++) if (bytes[k] === 0 || bytes[k] === 255) scanner.clipped++;
       return;
     }
+    if (kind === "i24" && simd24) {
+      const r = simd24(bytes, from, to);
+      if (r.lo < min) min = r.lo;
+      if (r.hi > max) max = r.hi;
+      scanner.clipped += r.clipped;
+      return;
+    }
     if (kind === "i24") {
       let lo0 = 0, hi0 = 0, lo1 = 0, hi1 = 0;
       let k = from;
@@ -133,7 +140,7 @@ export function createSampleScanner(format: WavFormat): SampleScanner | null {
       return;
     }
     if (kind === "i16" && simd16) {
-      // WebAssembly SIMD: extremes and full-scale count in one pass (simd16.ts).
+      // WebAssembly SIMD: extremes and full-scale count in one pass (simd.ts).
       const r = simd16(bytes, from, to);
       if (r.lo < min) min = r.lo;
       if (r.hi > max) max = r.hi;

@@ -1,8 +1,8 @@
-// The WebAssembly SIMD kernel for 16-bit samples agrees with a plain loop on random data at
+// The WebAssembly SIMD kernels (16-bit, 24-bit, float peak) agree with a plain loop on random data at
 // every offset and length (odd starts, lengths that leave samples outside a whole vector).
 import { randomFillSync } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { simd16 } from "./simd16";
+import { simd16 } from "./simd";
 
 function plain(bytes: Uint8Array, from: number, to: number) {
   let lo = 0, hi = 0, clipped = 0;
@@ -31,7 +31,7 @@ describe("16-bit SIMD scan", () => {
 
 describe("32-bit float SIMD peak", () => {
   it("matches a plain loop, and reports NaN so the careful pass runs", async () => {
-    const { simdPeak32 } = await import("./simd16");
+    const { simdPeak32 } = await import("./simd");
     expect(simdPeak32).not.toBeNull();
     const f = new Float32Array(300_001);
     for (let i = 0; i < f.length; i++) f[i] = Math.sin(i * 0.001) * 0.7 * (i % 7 === 0 ? -1 : 1);
@@ -45,5 +45,28 @@ describe("32-bit float SIMD peak", () => {
     for (const [from, to] of [[0, 4], [4, 28], [0, 1_200_004], [8, 1_199_996], [400, 400]]) expect(simdPeak32!(bytes, from, to)).toBe(plain(from, to));
     f[12345] = NaN;
     expect(simdPeak32!(bytes, 0, bytes.length)).toBeNaN();
+  });
+});
+
+describe("24-bit SIMD scan", () => {
+  it("matches a plain loop on packed 3-byte samples at any offset and length, across slices", async () => {
+    const { simd24 } = await import("./simd");
+    expect(simd24).not.toBeNull();
+    const bytes = new Uint8Array(3 * 400_001);
+    randomFillSync(bytes);
+    bytes.set([0xff, 0xff, 0x7f], 3 * 1000);
+    bytes.set([0x00, 0x00, 0x80], 3 * 300_000);
+    const plain = (from: number, to: number) => {
+      let lo = 0, hi = 0, clipped = 0;
+      for (let k = from; k < to; k += 3) {
+        const v = ((bytes[k] | (bytes[k + 1] << 8) | (bytes[k + 2] << 16)) << 8) >> 8;
+        lo = Math.min(lo, v);
+        hi = Math.max(hi, v);
+        if (v === 8388607 || v === -8388608) clipped++;
+      }
+      return { lo, hi, clipped };
+    };
+    for (const [from, to] of [[0, 3], [1, 37], [0, 3 * 400_001], [2, 2 + 3 * 399_999], [0, 524_016], [0, 524_028], [9, 9]]) expect(simd24!(bytes, from, to)).toEqual(plain(from, to));
+    expect(simd24!(bytes, 0, 3 * 400_001).clipped).toBe(2);
   });
 });
