@@ -62,7 +62,7 @@ test("save a build's preset to the library, find it in the Library, add it to an
   // Add it to a build with a 100-pixel blade, with the Ashfall font.
   await page.goto(`/builds/${to}/looks`);
   const panel = page.getByTestId("library-panel");
-  await panel.getByLabel("Library preset").selectOption({ label: `Dusk glow ${s} (v1)` });
+  await panel.getByLabel("Library preset and version").selectOption({ label: `Dusk glow ${s}, latest (v1)` });
   await panel.getByLabel("Font", { exact: true }).selectOption({ label: "Ashfall" });
   await panel.getByRole("button", { name: "Add to this build" }).click();
   await expect(page.getByTestId("library-ok")).toContainText("Added from the library");
