@@ -51,9 +51,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   requirePermission(v, "edit:build");
   const b = await loadBuildFor(v, params.buildId);
   if (intent === "add-from-library") {
-    const p = addForm.safeParse(fieldsOf(form, ["libraryPresetId", "version", "fontId", "configVersion"]));
+    const p = addForm.safeParse(fieldsOf(form, ["choice", "fontId", "configVersion"]));
     if (!p.success) return data<Answer>({ intent, error: firstFormIssue(p.error) }, { status: 400 });
-    const r = await addFromLibraryFor(v, { buildId: b.id, libraryPresetId: p.data.libraryPresetId, version: p.data.version, fontId: p.data.fontId, configVersion: p.data.configVersion });
+    const r = await addFromLibraryFor(v, { buildId: b.id, ...p.data.choice, fontId: p.data.fontId, configVersion: p.data.configVersion });
     return answer(intent, r, (x) => `Added from the library as a new preset (saved as revision ${x.version}).`);
   }
   if (intent === "apply-update") {

@@ -37,7 +37,7 @@ const ACTIONS: Action[] = [
   { route: "routes/api.render.ts", method: "POST", path: () => "/api/render", json: { config: {}, template: { builtin: "generic-header" } } },
   { route: "routes/api.builds.$buildId.config.ts", method: "PUT", path: (i) => `/api/builds/${i.build}/config`, json: { config: {}, version: 0 } },
   { route: "routes/api.builds.$buildId.render.ts", method: "POST", path: (i) => `/api/builds/${i.build}/render`, json: {} },
-  { route: "routes/builds.$buildId.looks.tsx", method: "POST", path: (i) => `/builds/${i.build}/looks`, form: { intent: "add-from-library", libraryPresetId: "", fontId: "ashfall", configVersion: "0" } },
+  { route: "routes/builds.$buildId.looks.tsx", method: "POST", path: (i) => `/builds/${i.build}/looks`, form: { intent: "add-from-library", choice: "", fontId: "ashfall", configVersion: "0" } },
   { route: "routes/library._index.tsx", method: "POST", path: () => "/library", form: {} },
   { route: "routes/library.$presetId.tsx", method: "POST", path: (i) => `/library/${i.lib}`, form: { intent: "dry-run" } },
   { route: "routes/api.presets.ts", method: "POST", path: () => "/api/presets", json: { changelog: "cross-site", preset: {} } },
@@ -279,7 +279,8 @@ test.describe("random input at every edge never answers 500", () => {
           await record("GET looks.png", true, await get(api, `/api/builds/${ids.build}/looks.png?preset=${wtf8(t1)}&channel=${wtf8(t2)}`));
           await record("GET /api/builds ?q", true, await get(api, `/api/builds?q=${wtf8(t1)}&page=${wtf8(n)}`));
           await record("GET /api/presets ?q&tag", true, await get(api, `/api/presets?q=${wtf8(t1)}&tag=${wtf8(t2)}&page=${wtf8(n)}`));
-          await record("GET /api/presets/:id", true, await get(api, `/api/presets/${wtf8(t1)}/versions/${wtf8(n)}`));
+          await record("GET /api/presets/:id", true, await get(api, `/api/presets/${wtf8(t1)}`));
+          await record("GET /api/presets/:id/versions/:v", true, await get(api, `/api/presets/${ids.lib}/versions/${wtf8(n)}`));
           await record("POST /api/presets", true, await rawJson("POST", "/api/presets", { changelog: t2, preset: { name: t1, tags: [t2], notes: t1, looks: { "main-blade": { pixels: v, layers: [] } } } }));
           await record("POST /api/builds/:id/presets", true, await rawJson("POST", `/api/builds/${ids.build}/presets`, { libraryPresetId: ids.lib, version: v, fontId: t1, configVersion: n, name: t2 }));
 

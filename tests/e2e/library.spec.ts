@@ -4,6 +4,7 @@
 // picks a side of a collision and applies it; the owner compares versions, is refused deleting a
 // version builds use, dry-runs the newest version across builds and applies it to the clean
 // ones (a released build untouched); a preset file is exported and imported, a bad one refused.
+import { createHash, randomBytes } from "node:crypto";
 import type pg from "pg";
 import { demoConfig } from "../../app/lib/config/demo";
 import { bodyFromBuildPreset } from "../../app/lib/library/adapt";
@@ -62,7 +63,7 @@ test("save a build's preset to the library, find it in the Library, add it to an
   // Add it to a build with a 100-pixel blade, with the Ashfall font.
   await page.goto(`/builds/${to}/looks`);
   const panel = page.getByTestId("library-panel");
-  await panel.getByLabel("Library preset").selectOption({ label: `Dusk glow ${s} (v1)` });
+  await panel.getByLabel("Library preset and version").selectOption({ label: `Dusk glow ${s}, latest (v1)` });
   await panel.getByLabel("Font", { exact: true }).selectOption({ label: "Ashfall" });
   await panel.getByRole("button", { name: "Add to this build" }).click();
   await expect(page.getByTestId("library-ok")).toContainText("Added from the library");
@@ -196,4 +197,49 @@ test("a library preset in the look editor on a stand-in rig: choose the pixels, 
   await page.getByLabel("What changed").fill("Renamed again");
   await page.getByRole("button", { name: "Save", exact: true }).click();
   await expect(page.getByTestId("save-message")).toContainText("Published as version 3");
+});
+
+test("bad input at the library's API: oversized, hostile and newer files, a released build, a client; 4xx and nothing changed", async ({ sql }) => {
+  const s = stamp();
+  const builder = await tokenFor(sql, "demo-builder", `lib-b-${s}`);
+  // Clients sign in by e-mail (no GitHub login): their token is stored as the app stores tokens.
+  const client = `hbt_${randomBytes(32).toString("base64url")}`;
+  await sql.query("INSERT INTO api_tokens (user_id, name, token_hash, prefix) SELECT id, $2, $3, $4 FROM users WHERE email = $1", [
+    "client-one@example.test",
+    `lib-c-${s}`,
+    createHash("sha256").update(client).digest("hex"),
+    client.slice(0, 10),
+  ]);
+  const count = async () => (await sql.query("SELECT (SELECT count(*) FROM library_presets)::int AS p, (SELECT count(*) FROM library_versions)::int AS v, (SELECT count(*) FROM build_preset_origins)::int AS o")).rows[0];
+  const before = await count();
+  const lib = (await sql.query("SELECT id FROM library_presets WHERE name = 'Tidebreak swell'")).rows[0].id;
+  const doc = (await api(builder, "GET", `/api/presets/${lib}/export`)).body;
+
+  const huge = await fetch(`${BASE_URL}/api/presets`, { method: "POST", headers: { Authorization: `Bearer ${builder}`, "Content-Type": "application/json" }, body: JSON.stringify({ ...doc, name: "Huge", notes: "x".repeat(1_100_000) }) });
+  expect(huge.status).toBe(413);
+  expect((await api(builder, "POST", "/api/presets", { ...doc, name: "Newer", format: "hiltbench.preset/2" })).status).toBe(422);
+  const nul = await api(builder, "POST", "/api/presets", { ...doc, name: "Bad\u0000name" });
+  expect(nul.status).toBe(400);
+  expect(String(nul.body.error)).toMatch(/name/);
+  const deep = await api(builder, "POST", "/api/presets", JSON.parse(`${"[".repeat(100)}${"]".repeat(100)}`));
+  expect(deep.status).toBe(400);
+  // A released build takes nothing from the library.
+  const released = await newBuild(sql, `Osprey ${s}`, { status: "released" });
+  const add = await api(builder, "POST", `/api/builds/${released}/presets`, { libraryPresetId: lib, fontId: "tidebreak", configVersion: 1 });
+  expect(add.status).toBe(409);
+  expect(String(add.body.error)).toMatch(/released/);
+  // A client sees nothing of the library, whichever route.
+  for (const [method, path] of [
+    ["GET", "/api/presets"],
+    ["GET", `/api/presets/${lib}`],
+    ["GET", `/api/presets/${lib}/export`],
+    ["GET", `/api/presets/${lib}/versions/1`],
+    ["DELETE", `/api/presets/${lib}/versions/1`],
+    ["POST", `/api/presets/${lib}/versions`],
+    ["POST", `/api/presets/${lib}/rollout`],
+  ] as const) {
+    const r = await api(client, method, path, method === "GET" ? undefined : {});
+    expect(r.status, `${method} ${path}`).toBe(403);
+  }
+  expect(await count()).toEqual(before);
 });

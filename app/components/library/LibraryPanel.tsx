@@ -107,29 +107,21 @@ export function LibraryPanel(props: {
           <input type="hidden" name="configVersion" value={version} />
           <div>
             <label className="label" htmlFor="lib-preset">
-              Library preset
+              Library preset and version
             </label>
-            <select id="lib-preset" name="libraryPresetId" className="field w-60" required>
+            <select id="lib-preset" name="choice" className="field w-72" required>
               {library.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name} (v{p.latest})
-                </option>
-              ))}
-            </select>
-          </div>
-          <div>
-            <label className="label" htmlFor="lib-version">
-              Version
-            </label>
-            <select id="lib-version" name="version" className="field w-52" defaultValue="">
-              <option value="">Latest</option>
-              {library.flatMap((p) =>
-                p.versions.map((n) => (
-                  <option key={`${p.id}-${n}`} value={n}>
-                    v{n} ({p.name})
+                <optgroup key={p.id} label={p.name}>
+                  <option value={`${p.id}@latest`}>
+                    {p.name}, latest (v{p.latest})
                   </option>
-                )),
-              )}
+                  {p.versions.slice(1).map((n) => (
+                    <option key={n} value={`${p.id}@${n}`}>
+                      {p.name}, v{n}
+                    </option>
+                  ))}
+                </optgroup>
+              ))}
             </select>
           </div>
           <div>

@@ -20,9 +20,19 @@ const tags = z
   .transform((s) => [...new Set(s.split(",").map((t) => t.trim()).filter(Boolean))])
   .pipe(z.array(tagSchema).max(MAX_TAGS, `At most ${MAX_TAGS} tags`));
 
+/** "Library preset and version": "<preset id>@latest" or "<preset id>@<n>". */
+const choice = z
+  .string()
+  .max(80)
+  .regex(/^[0-9a-f-]{36}@(latest|[1-9][0-9]{0,9})$/i, "Choose a library preset and version")
+  .transform((s) => {
+    const [id, v] = s.split("@");
+    return { libraryPresetId: id, version: v === "latest" ? null : Number(v) };
+  })
+  .pipe(z.object({ libraryPresetId: uuid, version: z.number().int().min(1).max(INT4_MAX).nullable() }));
+
 export const addForm = z.object({
-  libraryPresetId: uuid,
-  version: optionalVersion,
+  choice,
   fontId: z.string().min(1, "Choose a font").max(48),
   configVersion: whole("The config version"),
 });
