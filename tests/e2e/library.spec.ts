@@ -7,6 +7,7 @@
 import type pg from "pg";
 import { demoConfig } from "../../app/lib/config/demo";
 import { bodyFromBuildPreset } from "../../app/lib/library/adapt";
+import { checkApiAnswer } from "../api-contract";
 import { test, expect, tokenFor, BASE_URL } from "./fixtures";
 
 test.describe.configure({ timeout: 120_000 });
@@ -26,6 +27,7 @@ async function newBuild(sql: pg.Pool, name: string, opts: { pixels?: number; sta
 
 async function api(token: string, method: string, path: string, body?: unknown) {
   const r = await fetch(`${BASE_URL}${path}`, { method, headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body: body === undefined ? undefined : JSON.stringify(body) });
+  await checkApiAnswer(BASE_URL, method, r); // the answer as /api/openapi.json documents it
   return { status: r.status, body: (await r.json()) as Record<string, unknown> };
 }
 
