@@ -120,7 +120,7 @@ function build() {
       },
       paths,
     },
-    { reused: "ref" },
+    { reused: "inline" },
   );
 }
 
