@@ -3,7 +3,7 @@
 // uses (409 naming the builds that use it; the only version left is never removed).
 import { requireViewer, requirePermission } from "~/lib/auth/auth.server";
 import { libraryVersionAnswer, libraryVersionDeletedAnswer } from "~/lib/api-doc/shapes";
-import { compareVersionsFor, deleteVersionFor, getLibraryPresetFor, getLibraryVersionFor } from "~/lib/library/service.server";
+import { compareVersionsFor, deleteVersionFor, getLibraryPresetFor, getLibraryVersionFor, readBody } from "~/lib/library/service.server";
 import { versionParam } from "~/lib/library/requests";
 import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.presets.$presetId.versions.$v";
@@ -18,7 +18,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const p = await getLibraryPresetFor(v, params.presetId);
     const previous = p?.versions.find((x) => x.version < n)?.version;
     const changes = previous ? await compareVersionsFor(v, params.presetId, previous, n) : null;
-    return jsonAs(libraryVersionAnswer, { ...row, createdAt: row.createdAt.toISOString(), previousVersion: previous ?? null, changes: changes?.map((c) => c.text) ?? [] });
+    return jsonAs(libraryVersionAnswer, { ...row, body: readBody(row.body), createdAt: row.createdAt.toISOString(), previousVersion: previous ?? null, changes: changes?.map((c) => c.text) ?? [] });
   });
 }
 

@@ -121,6 +121,10 @@ test("the owner compares versions, cannot delete a used one, dry-runs across bui
   const v2 = structuredClone(body);
   (v2.looks["main-blade"].layers.find((l) => l.kind === "drift") as { speedPixelsPerSecond: number }).speedPixelsPerSecond = 12;
   expect((await api(token, "POST", `/api/presets/${lib}/versions`, { baseVersion: 1, changelog: "Slower drift", preset: v2 })).status).toBe(201);
+  // A script reads the version back (its body is what it would publish again) and what changed.
+  const read = await api(token, "GET", `/api/presets/${lib}/versions/2`);
+  expect(read.body).toMatchObject({ version: 2, previousVersion: 1, changelog: "Slower drift", body: { name: body.name } });
+  expect(read.body.changes).toContain("Main blade › layer 2 (drift): speed 30 → 12 px/s");
   // A stale publish and a preset with errors change nothing.
   expect((await api(token, "POST", `/api/presets/${lib}/versions`, { baseVersion: 1, changelog: "Stale", preset: v2 })).status).toBe(409);
   const bad = await api(token, "POST", `/api/presets/${lib}/versions`, { baseVersion: 2, changelog: "Bad", preset: { ...v2, looks: { "main-blade": { pixels: 0, layers: [] } } } });

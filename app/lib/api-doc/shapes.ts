@@ -8,6 +8,7 @@ import { diagnosticSchema } from "../checks/diagnostics";
 import { errorKindSchema, positionedErrorSchema } from "../template/error-list";
 import { BUILD_STATUSES, ROLES } from "../db/types";
 import { CUES } from "../config/schema";
+import { presetBodySchema } from "../library/format";
 
 const isoTime = z.string().meta({ description: "A time in ISO 8601 (UTC), e.g. 2026-12-03T08:00:00.000Z.", format: "date-time" });
 const int = () => z.number().int();
@@ -293,7 +294,7 @@ export const libraryVersionsAnswer = z.strictObject({ versions: z.array(z.strict
 export const libraryVersionAnswer = z.strictObject({
   presetId: z.string(),
   ...versionSummary,
-  body: z.unknown().meta({ description: "The preset body: name, tags, notes and looks by channel role (each with the pixel count it was made on)." }),
+  body: presetBodySchema.meta({ description: "The preset body: name, tags, notes and looks by channel role (each with the pixel count it was made on); send it back as preset to publish a new version." }),
   previousVersion: int().nullable(),
   changes: z.array(z.string()).meta({ description: "What changed from the previous version, in words." }),
 });
