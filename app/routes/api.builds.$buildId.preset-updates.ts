@@ -4,10 +4,11 @@
 // every collision needs a choice ("mine" or "theirs") by its path, else 409 listing them.
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { applyUpdateFor, updatesForBuild } from "~/lib/library/service.server";
+import { presetUpdatedAnswer, presetUpdatesAnswer } from "~/lib/api-doc/shapes";
+import { applyUpdateFor, refused, updatesForBuild } from "~/lib/library/service.server";
 import { applyBody, firstIssue } from "~/lib/library/requests";
 import { readJsonBody } from "~/lib/web/body.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs, refusalAnswer } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.preset-updates";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -15,7 +16,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const v = await requireViewer(request, "view:library");
     const b = await loadBuildFor(v, params.buildId);
     const { updates } = await updatesForBuild(v, b);
-    return json({ updates: updates.map((u) => ({ ...u, changes: u.changes.map((c) => c.text), notes: u.notes.map((n) => n.text) })) });
+    return jsonAs(presetUpdatesAnswer, { updates: updates.map((u) => ({ ...u, changes: u.changes.map((c) => c.text), notes: u.notes.map((n) => n.text) })) });
   });
 }
 
@@ -27,6 +28,7 @@ export function action({ request, params }: Route.ActionArgs) {
     const parsed = applyBody.safeParse(await readJsonBody(request, 256 * 1024));
     if (!parsed.success) fail(400, firstIssue(parsed.error));
     const r = await applyUpdateFor(v, { buildId: b.id, presetId: parsed.data.presetId, configVersion: parsed.data.configVersion, choices: parsed.data.choices ?? {} });
-    return json(r.body, { status: r.status });
+    if (refused(r)) return refusalAnswer(r);
+    return jsonAs(presetUpdatedAnswer, r.body, { status: r.status });
   });
 }

@@ -4,10 +4,11 @@
 // GET lists where the build's presets came from.
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
-import { addFromLibraryFor, updatesForBuild } from "~/lib/library/service.server";
+import { presetAddedAnswer, presetOriginsAnswer } from "~/lib/api-doc/shapes";
+import { addFromLibraryFor, refused, updatesForBuild } from "~/lib/library/service.server";
 import { addBody, firstIssue } from "~/lib/library/requests";
 import { readJsonBody } from "~/lib/web/body.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs, refusalAnswer } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.builds.$buildId.presets";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -15,7 +16,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const v = await requireViewer(request, "view:library");
     const b = await loadBuildFor(v, params.buildId);
     const { origins } = await updatesForBuild(v, b);
-    return json({ origins });
+    return jsonAs(presetOriginsAnswer, { origins });
   });
 }
 
@@ -28,6 +29,7 @@ export function action({ request, params }: Route.ActionArgs) {
     if (!parsed.success) fail(400, firstIssue(parsed.error));
     const d = parsed.data;
     const r = await addFromLibraryFor(v, { buildId: b.id, libraryPresetId: d.libraryPresetId, version: d.version ?? null, fontId: d.fontId, configVersion: d.configVersion, name: d.name });
-    return json(r.body, { status: r.status });
+    if (refused(r)) return refusalAnswer(r);
+    return jsonAs(presetAddedAnswer, r.body, { status: r.status });
   });
 }

@@ -2,10 +2,11 @@
 // preset. apply false is the dry run (which builds merge cleanly, which need hands); apply true
 // saves the clean ones. Released builds are never changed. The owner's.
 import { requireViewer } from "~/lib/auth/auth.server";
-import { rollOutFor } from "~/lib/library/service.server";
+import { rolloutAnswer } from "~/lib/api-doc/shapes";
+import { refused, rollOutFor } from "~/lib/library/service.server";
 import { firstIssue, rolloutBody } from "~/lib/library/requests";
 import { readJsonBody } from "~/lib/web/body.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs, refusalAnswer } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.presets.$presetId.rollout";
 
 export function action({ request, params }: Route.ActionArgs) {
@@ -15,6 +16,7 @@ export function action({ request, params }: Route.ActionArgs) {
     const parsed = rolloutBody.safeParse(await readJsonBody(request, 4096));
     if (!parsed.success) fail(400, firstIssue(parsed.error));
     const r = await rollOutFor(v, params.presetId, parsed.data.apply);
-    return json(r.body, { status: r.status });
+    if (refused(r)) return refusalAnswer(r);
+    return jsonAs(rolloutAnswer, r.body, { status: r.status });
   });
 }

@@ -2,9 +2,10 @@
 // counts) and its changes from the version before, in words. DELETE removes a version no build
 // uses (409 naming the builds that use it; the only version left is never removed).
 import { requireViewer, requirePermission } from "~/lib/auth/auth.server";
-import { compareVersionsFor, deleteVersionFor, getLibraryPresetFor, getLibraryVersionFor } from "~/lib/library/service.server";
+import { libraryVersionAnswer, libraryVersionDeletedAnswer } from "~/lib/api-doc/shapes";
+import { compareVersionsFor, deleteVersionFor, getLibraryPresetFor, getLibraryVersionFor, readBody } from "~/lib/library/service.server";
 import { versionParam } from "~/lib/library/requests";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.presets.$presetId.versions.$v";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -17,7 +18,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const p = await getLibraryPresetFor(v, params.presetId);
     const previous = p?.versions.find((x) => x.version < n)?.version;
     const changes = previous ? await compareVersionsFor(v, params.presetId, previous, n) : null;
-    return json({ ...row, previousVersion: previous ?? null, changes: changes?.map((c) => c.text) ?? [] });
+    return jsonAs(libraryVersionAnswer, { ...row, body: readBody(row.body), createdAt: row.createdAt.toISOString(), previousVersion: previous ?? null, changes: changes?.map((c) => c.text) ?? [] });
   });
 }
 
@@ -33,8 +34,8 @@ export function action({ request, params }: Route.ActionArgs) {
     if (r.kind === "last") fail(409, "This is the preset's only version; it stays. Nothing was deleted.");
     if (r.kind === "in-use") {
       const names = [...new Set(r.builds.map((b) => b.buildName))];
-      return json({ error: `Version ${n} is used by ${names.join(", ")}; it stays. Update those builds first. Nothing was deleted.`, builds: r.builds }, { status: 409 });
+      fail(409, `Version ${n} is used by ${names.join(", ")}; it stays. Update those builds first. Nothing was deleted.`, { builds: r.builds });
     }
-    return json({ deleted: n });
+    return jsonAs(libraryVersionDeletedAnswer, { deleted: n });
   });
 }

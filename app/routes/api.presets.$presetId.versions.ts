@@ -2,11 +2,12 @@
 // 201 with the version; 409 when another version was published since baseVersion; 422 with
 // the validator's diagnostics when the preset has errors. GET lists the versions.
 import { requireViewer } from "~/lib/auth/auth.server";
-import { getLibraryPresetFor, publishFor } from "~/lib/library/service.server";
+import { libraryVersionsAnswer, presetPublishedAnswer } from "~/lib/api-doc/shapes";
+import { getLibraryPresetFor, publishFor, refused } from "~/lib/library/service.server";
 import { MAX_PRESET_DOCUMENT_BYTES } from "~/lib/library/exchange.server";
 import { firstIssue, publishBody } from "~/lib/library/requests";
 import { readJsonBody } from "~/lib/web/body.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs, refusalAnswer } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.presets.$presetId.versions";
 
 export function loader({ request, params }: Route.LoaderArgs) {
@@ -14,7 +15,7 @@ export function loader({ request, params }: Route.LoaderArgs) {
     const v = await requireViewer(request, "view:library");
     const p = await getLibraryPresetFor(v, params.presetId);
     if (!p) fail(404, "No library preset with this id in your workshop.");
-    return json({ versions: p.versions });
+    return jsonAs(libraryVersionsAnswer, { versions: p.versions.map((x) => ({ ...x, createdAt: x.createdAt.toISOString() })) });
   });
 }
 
@@ -26,6 +27,7 @@ export function action({ request, params }: Route.ActionArgs) {
     const parsed = publishBody.safeParse(body);
     if (!parsed.success) fail(400, firstIssue(parsed.error));
     const r = await publishFor(v, { presetId: params.presetId, baseVersion: parsed.data.baseVersion, body: parsed.data.preset, changelog: parsed.data.changelog });
-    return json(r.body, { status: r.status });
+    if (refused(r)) return refusalAnswer(r);
+    return jsonAs(presetPublishedAnswer, r.body, { status: r.status });
   });
 }

@@ -2,11 +2,12 @@
 // POST /api/presets: a new library preset ({ preset, changelog }, 201) or an import of a
 // "hiltbench.preset/1" document (201 with the new preset's id).
 import { requireViewer } from "~/lib/auth/auth.server";
-import { listLibraryFor, publishFor } from "~/lib/library/service.server";
+import { libraryListAnswer, presetImportedAnswer, presetPublishedAnswer } from "~/lib/api-doc/shapes";
+import { listLibraryFor, publishFor, refused } from "~/lib/library/service.server";
 import { importFor, isPresetDocument, MAX_PRESET_DOCUMENT_BYTES } from "~/lib/library/exchange.server";
 import { createBody, firstIssue, parseListQuery } from "~/lib/library/requests";
 import { readJsonBody } from "~/lib/web/body.server";
-import { apiAnswer, fail, json } from "~/lib/web/http.server";
+import { apiAnswer, fail, jsonAs, refusalAnswer } from "~/lib/web/http.server";
 import type { Route } from "./+types/api.presets";
 
 export function loader({ request }: Route.LoaderArgs) {
@@ -14,7 +15,12 @@ export function loader({ request }: Route.LoaderArgs) {
     const v = await requireViewer(request, "view:library");
     const query = parseListQuery(new URL(request.url));
     const { rows, total } = await listLibraryFor(v, query);
-    return json({ total, page: query.page, perPage: query.perPage, presets: rows.map((r) => ({ ...r, url: `/api/presets/${r.id}` })) });
+    return jsonAs(libraryListAnswer, {
+      total,
+      page: query.page,
+      perPage: query.perPage,
+      presets: rows.map((r) => ({ ...r, publishedAt: r.publishedAt.toISOString(), url: `/api/presets/${r.id}` })),
+    });
   });
 }
 
@@ -25,11 +31,13 @@ export function action({ request }: Route.ActionArgs) {
     const body = await readJsonBody(request, MAX_PRESET_DOCUMENT_BYTES, "The preset document is too large; a library preset file is at most 1 MB.");
     if (isPresetDocument(body)) {
       const r = await importFor(v, body);
-      return json(r.body, { status: r.status });
+      if (refused(r)) return refusalAnswer(r);
+      return jsonAs(presetImportedAnswer, r.body, { status: r.status });
     }
     const parsed = createBody.safeParse(body);
     if (!parsed.success) fail(400, firstIssue(parsed.error));
     const r = await publishFor(v, { presetId: null, baseVersion: null, body: parsed.data.preset, changelog: parsed.data.changelog });
-    return json(r.body, { status: r.status });
+    if (refused(r)) return refusalAnswer(r);
+    return jsonAs(presetPublishedAnswer, r.body, { status: r.status });
   });
 }

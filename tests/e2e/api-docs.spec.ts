@@ -28,12 +28,22 @@ test("the API reference is public and readable, with a curl example per route an
   await expect(put.getByRole("region", { name: /curl example/ })).toContainText("$KESTREL");
   await expect(put.getByText("409", { exact: true })).toBeVisible();
 
+  // The library has its own section; a DELETE reads like the rest, and types are named, never generated ids.
+  const library = page.getByRole("region", { name: "Library", exact: true });
+  await expect(library).toContainText("The workshop's preset library");
+  const del = library.getByRole("region", { name: "DELETE /api/presets/{presetId}/versions/{v}", exact: true });
+  await expect(del.getByText("Permission: publish:library")).toBeVisible();
+  await expect(del.getByRole("region", { name: /curl example/ })).toContainText('-X DELETE "$HB/api/presets/$ASHFALL/versions/1"');
+  await expect(page.getByRole("region", { name: "GET /api/builds/{buildId}/preset-updates", exact: true })).toContainText("array of MergeConflict");
+  await expect(page.locator("main, body").first()).not.toContainText("__schema");
+
   // The error shape is documented once, and the introduction sets up the demo workshop.
   const errors = page.getByRole("region", { name: "Errors" });
   await expect(errors).toContainText("status");
   await expect(errors).toContainText("diagnostics");
   await expect(page.getByRole("region", { name: "Introduction" })).toContainText("Ember & Anvil Props");
   await expect(page.getByRole("region", { name: "Introduction" })).toContainText("/api/builds?q=Kestrel");
+  await expect(page.getByRole("region", { name: "Introduction" })).toContainText("/api/presets?q=Ashfall");
 });
 
 test("the document is served as OpenAPI 3.1 JSON without sign-in, and an unknown API address is a JSON 404", async ({ request, sql }) => {

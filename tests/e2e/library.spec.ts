@@ -8,6 +8,7 @@ import { createHash, randomBytes } from "node:crypto";
 import type pg from "pg";
 import { demoConfig } from "../../app/lib/config/demo";
 import { bodyFromBuildPreset } from "../../app/lib/library/adapt";
+import { checkApiAnswer } from "../api-contract";
 import { test, expect, tokenFor, BASE_URL } from "./fixtures";
 
 test.describe.configure({ timeout: 120_000 });
@@ -27,6 +28,7 @@ async function newBuild(sql: pg.Pool, name: string, opts: { pixels?: number; sta
 
 async function api(token: string, method: string, path: string, body?: unknown) {
   const r = await fetch(`${BASE_URL}${path}`, { method, headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body: body === undefined ? undefined : JSON.stringify(body) });
+  await checkApiAnswer(BASE_URL, method, r); // the answer as /api/openapi.json documents it
   return { status: r.status, body: (await r.json()) as Record<string, unknown> };
 }
 
@@ -120,6 +122,10 @@ test("the owner compares versions, cannot delete a used one, dry-runs across bui
   const v2 = structuredClone(body);
   (v2.looks["main-blade"].layers.find((l) => l.kind === "drift") as { speedPixelsPerSecond: number }).speedPixelsPerSecond = 12;
   expect((await api(token, "POST", `/api/presets/${lib}/versions`, { baseVersion: 1, changelog: "Slower drift", preset: v2 })).status).toBe(201);
+  // A script reads the version back (its body is what it would publish again) and what changed.
+  const read = await api(token, "GET", `/api/presets/${lib}/versions/2`);
+  expect(read.body).toMatchObject({ version: 2, previousVersion: 1, changelog: "Slower drift", body: { name: body.name } });
+  expect(read.body.changes).toContain("Main blade › layer 2 (drift): speed 30 → 12 px/s");
   // A stale publish and a preset with errors change nothing.
   expect((await api(token, "POST", `/api/presets/${lib}/versions`, { baseVersion: 1, changelog: "Stale", preset: v2 })).status).toBe(409);
   const bad = await api(token, "POST", `/api/presets/${lib}/versions`, { baseVersion: 2, changelog: "Bad", preset: { ...v2, looks: { "main-blade": { pixels: 0, layers: [] } } } });

@@ -9,16 +9,17 @@ import { apiErrorSchema } from "./shapes";
  * The API's version. Major: a change a client must adapt to (a field removed or renamed, a
  * status or meaning changed). Minor: additions (a route, an optional field, a query value).
  */
-export const API_VERSION = "1.0.0";
+export const API_VERSION = "1.1.0";
 
 export const SETUP = `export HB=http://127.0.0.1:5173          # where Hiltbench runs (npm start prints it)
 export HB_TOKEN=hbt_...                     # Account → API tokens (or: npm run api-token -- demo-builder)
-KESTREL=$(curl -s -H "Authorization: Bearer $HB_TOKEN" "$HB/api/builds?q=Kestrel" | jq -r '.builds[0].id')`;
+KESTREL=$(curl -s -H "Authorization: Bearer $HB_TOKEN" "$HB/api/builds?q=Kestrel" | jq -r '.builds[0].id')
+ASHFALL=$(curl -s -H "Authorization: Bearer $HB_TOKEN" "$HB/api/presets?q=Ashfall" | jq -r '.presets[0].id')`;
 
 export const STABILITY = [
   "Within one major version (1.x) nothing is removed or renamed: routes, methods, query parameters, body fields, answer fields and their types stay as documented here.",
   "New things arrive in minor versions: routes, optional query parameters and body fields, answer fields, error details, diagnostic codes. A client should ignore fields it does not know.",
-  "Every JSON error has the ApiError shape: status, error (a message for a person; its wording may change) and, where they apply, field, diagnostics, errors with total and kinds, findings, currentVersion. Match on the status and on codes, never on message text.",
+  "Every JSON error has the ApiError shape: status, error (a message for a person; its wording may change) and, where they apply, field, diagnostics, errors with total and kinds, findings, currentVersion, latestVersion, conflicts, builds. Match on the status and on codes, never on message text.",
   "Diagnostic codes are stable: a code is never renamed or given another meaning. Messages and hints may be reworded.",
   "The config exchange form is named by its format field (hiltbench.config/2); an older form is still accepted and upgraded as it is read.",
   "The same stored revision rendered through the same template version gives the same bytes; so does the bundle for the same inputs.",
@@ -88,7 +89,7 @@ function build() {
         title: "Hiltbench API",
         version: API_VERSION,
         description: [
-          "JSON routes for scripts and for the app's own pages: builds, configs, validation, rendering, revisions and diffs, font uploads, the SD card bundle and pictures.",
+          "JSON routes for scripts and for the app's own pages: builds, configs, validation, rendering, revisions and diffs, font uploads, the SD card bundle, pictures and the preset library.",
           "Authenticate with a personal API token (Account → API tokens) as `Authorization: Bearer <token>`; the app's own pages use their session cookie. What you may do follows your role in the workshop.",
           "The examples use the demo workshop, Ember & Anvil Props, and its build Kestrel. Set up once:",
           "```sh\n" + SETUP + "\n```",
@@ -107,6 +108,7 @@ function build() {
         { name: "Fonts", description: "Sound font uploads." },
         { name: "Bundle", description: "The SD card zip." },
         { name: "Pictures", description: "Look timelines and the wiring picture." },
+        { name: "Library", description: "The workshop's preset library: versions, adding to builds, updates by merge, roll-out, preset files." },
         { name: "Reference", description: "This document." },
       ],
       components: {
@@ -118,7 +120,7 @@ function build() {
       },
       paths,
     },
-    { reused: "ref" },
+    { reused: "inline" },
   );
 }
 

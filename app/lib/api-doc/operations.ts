@@ -5,6 +5,8 @@
 import { z } from "zod";
 import { bundleQuerySchema } from "../bundle/query";
 import { buildQuerySchema } from "../forms/build-forms";
+import { presetDocumentSchema } from "../library/exchange";
+import { addBody, applyBody, createBody, libraryListQuerySchema, publishBody, rolloutBody } from "../library/requests";
 import { renderBodyDoc } from "../rendering/request";
 import { revisionListQuerySchema } from "../revisions/params";
 import {
@@ -16,9 +18,21 @@ import {
   configSavedAnswer,
   diffAnswer,
   fontUploadAnswer,
+  libraryListAnswer,
+  libraryPresetAnswer,
+  libraryVersionAnswer,
+  libraryVersionDeletedAnswer,
+  libraryVersionsAnswer,
   meAnswer,
+  presetAddedAnswer,
+  presetImportedAnswer,
+  presetOriginsAnswer,
+  presetPublishedAnswer,
+  presetUpdatedAnswer,
+  presetUpdatesAnswer,
   revisionAnswer,
   revisionListAnswer,
+  rolloutAnswer,
   validateAnswer,
   validateBody,
 } from "./shapes";
@@ -27,14 +41,14 @@ import {
 export type Answer = { description: string; json?: z.ZodType; media?: "text/plain" | "text/x-diff" | "image/png" | "image/svg+xml" | "application/zip" | "text/html"; headers?: Record<string, string> };
 
 export type Operation = {
-  method: "get" | "post" | "put";
+  method: "get" | "post" | "put" | "delete";
   /** The OpenAPI path: `/api/builds/{buildId}` for the route `builds/:buildId` under the api prefix. */
   path: string;
   summary: string;
   description: string;
   /** The permission the route asks for (app/lib/auth/permissions.ts); null for a public operation. */
   permission: string | null;
-  tag: "Account" | "Builds" | "Config" | "Rendering" | "Revisions" | "Fonts" | "Bundle" | "Pictures" | "Reference";
+  tag: "Account" | "Builds" | "Config" | "Rendering" | "Revisions" | "Fonts" | "Bundle" | "Pictures" | "Library" | "Reference";
   pathParams?: z.ZodObject;
   query?: z.ZodObject;
   body?: { media: "application/json" | "multipart/form-data"; schema: z.ZodType; description?: string };
@@ -49,6 +63,9 @@ export type Operation = {
 const buildId = z.object({ buildId: z.string().meta({ description: "The build's id (GET /api/builds answers it).", example: "$KESTREL" }) });
 const AUTH = '-H "Authorization: Bearer $HB_TOKEN"';
 const NOT_YOURS = "No such build in your workshop (or, for a client, not their build).";
+const presetId = z.object({ presetId: z.string().meta({ description: "A library preset's id (GET /api/presets answers it).", example: "$ASHFALL" }) });
+const NO_PRESET = "No library preset with this id in your workshop.";
+const JSON_BODY = '-H "Content-Type: application/json"';
 
 export const OPERATIONS: Operation[] = [
   {
@@ -252,6 +269,199 @@ export const OPERATIONS: Operation[] = [
     answers: { 200: { description: "The zip (or, with check=1, its plan as JSON).", media: "application/zip", json: bundlePlanAnswer } },
     errors: { 400: "A query value that is not allowed (field names it).", 404: NOT_YOURS, 422: "The card cannot be built: a name clash, a file too large, or a card too small (findings)." },
     curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/bundle?check=1"\ncurl ${AUTH} -OJ "$HB/api/builds/$KESTREL/bundle?names=8.3&card=16"`,
+  },
+  {
+    method: "get",
+    path: "/api/presets",
+    tag: "Library",
+    summary: "List the workshop's preset library",
+    description: "The library presets, by name, paged on the server, each with its newest version and the builds using it. Unknown query values fall back to the defaults.",
+    permission: "view:library",
+    query: libraryListQuerySchema,
+    answers: { 200: { description: "One page of library presets.", json: libraryListAnswer } },
+    errors: {},
+    curl: `curl ${AUTH} "$HB/api/presets?tag=demo"`,
+  },
+  {
+    method: "post",
+    path: "/api/presets",
+    tag: "Library",
+    summary: "Add a preset to the library, or import a preset file",
+    description:
+      'A body { preset, changelog } publishes a new library preset as version 1 (the preset is checked on a stand-in rig: errors refuse it). A body whose format is "hiltbench.preset/…" is a preset file (GET /api/presets/{presetId}/export makes one): its versions are imported as a new preset, renumbered from 1, all or nothing.',
+    permission: "publish:library",
+    body: { media: "application/json", schema: z.union([createBody, presetDocumentSchema]), description: "A new preset and its changelog, or a hiltbench.preset/1 file." },
+    answers: { 201: { description: "Published (presetId, version 1, diagnostics) or imported (presetId, versions).", json: z.union([presetPublishedAnswer, presetImportedAnswer]) } },
+    errors: {
+      400: "The body is not JSON, or a field is missing or wrong (field named in the message).",
+      405: "Not a POST.",
+      409: "Another library preset already has this name.",
+      413: "The body is larger than 1 MB.",
+      422: "The preset (or a version in the file) has errors, the changelog is empty, or the file is another format (diagnostics).",
+    },
+    curl: `curl ${AUTH} "$HB/api/presets/$ASHFALL/export" |\n  jq '.name = "Ashfall embers (copy)"' |\n  curl ${AUTH} ${JSON_BODY} --data-binary @- "$HB/api/presets"`,
+  },
+  {
+    method: "get",
+    path: "/api/presets/{presetId}",
+    tag: "Library",
+    summary: "One library preset",
+    description: "Its name, tags and notes, every version (newest first, each with where to read it) and the builds using it.",
+    permission: "view:library",
+    pathParams: presetId,
+    answers: { 200: { description: "The preset.", json: libraryPresetAnswer } },
+    errors: { 404: NO_PRESET },
+    curl: `curl ${AUTH} "$HB/api/presets/$ASHFALL"`,
+  },
+  {
+    method: "get",
+    path: "/api/presets/{presetId}/export",
+    tag: "Library",
+    summary: "Export a library preset as a file",
+    description: "A hiltbench.preset/1 file with every version (or the one named), offered as a download; POST /api/presets imports it in another workshop.",
+    permission: "view:library",
+    pathParams: presetId,
+    query: z.object({ version: z.string().optional().meta({ description: "Only this version (a whole number from 1); every version when absent." }) }),
+    answers: { 200: { description: "The preset file.", json: presetDocumentSchema, headers: { "Content-Disposition": "attachment, with a file name made from the preset's name." } } },
+    errors: { 400: "version is not a whole number from 1.", 404: "No such library preset (or version) in your workshop." },
+    curl: `curl ${AUTH} -OJ "$HB/api/presets/$ASHFALL/export"`,
+  },
+  {
+    method: "get",
+    path: "/api/presets/{presetId}/versions",
+    tag: "Library",
+    summary: "List a library preset's versions",
+    description: "Every version's number, changelog, author, time and validator counts, newest first.",
+    permission: "view:library",
+    pathParams: presetId,
+    answers: { 200: { description: "The versions.", json: libraryVersionsAnswer } },
+    errors: { 404: NO_PRESET },
+    curl: `curl ${AUTH} "$HB/api/presets/$ASHFALL/versions"`,
+  },
+  {
+    method: "post",
+    path: "/api/presets/{presetId}/versions",
+    tag: "Library",
+    summary: "Publish a new version",
+    description:
+      "A new version of the preset, only over the newest one (baseVersion): a version published since is a 409 with latestVersion, and nothing is stored. The preset is checked on a stand-in rig; errors refuse it (422 with diagnostics). Versions are never changed once published.",
+    permission: "publish:library",
+    pathParams: presetId,
+    body: { media: "application/json", schema: publishBody },
+    answers: { 201: { description: "Published: the version, where to read it, and the validator's warnings.", json: presetPublishedAnswer } },
+    errors: {
+      400: "The body is not JSON, or a field is missing or wrong (field named in the message).",
+      404: NO_PRESET,
+      405: "Not a POST.",
+      409: "A version was published since baseVersion (latestVersion), or the new name is another preset's.",
+      413: "The body is larger than 1 MB.",
+      422: "The preset has errors (diagnostics), or the changelog is empty.",
+    },
+    curl: `curl ${AUTH} "$HB/api/presets/$ASHFALL/versions/2" |\n  jq '{baseVersion: .version, changelog: "Hotter clash", preset: .body}' |\n  curl ${AUTH} ${JSON_BODY} --data-binary @- "$HB/api/presets/$ASHFALL/versions"`,
+  },
+  {
+    method: "get",
+    path: "/api/presets/{presetId}/versions/{v}",
+    tag: "Library",
+    summary: "One version of a library preset",
+    description: "The version's preset body (looks by channel role), changelog, author, time and counts, and what changed from the version before, in words.",
+    permission: "view:library",
+    pathParams: presetId.extend({ v: z.string().meta({ description: "The version number, from 1.", example: "2" }) }),
+    answers: { 200: { description: "The version.", json: libraryVersionAnswer } },
+    errors: { 400: "v is not a whole number from 1.", 404: "No such version of a library preset in your workshop." },
+    curl: `curl ${AUTH} "$HB/api/presets/$ASHFALL/versions/2"`,
+  },
+  {
+    method: "delete",
+    path: "/api/presets/{presetId}/versions/{v}",
+    tag: "Library",
+    summary: "Delete a version no build uses",
+    description: "Removes one version. A version a build is on stays (409 naming the builds, so they can be updated first), and so does a preset's only version.",
+    permission: "publish:library",
+    pathParams: presetId.extend({ v: z.string().meta({ description: "The version number, from 1.", example: "1" }) }),
+    answers: { 200: { description: "Deleted.", json: libraryVersionDeletedAnswer } },
+    errors: { 400: "v is not a whole number from 1.", 404: "No such version of a library preset in your workshop.", 405: "Another method than GET or DELETE.", 409: "Builds use this version (builds), or it is the preset's only version." },
+    curl: `curl ${AUTH} -X DELETE "$HB/api/presets/$ASHFALL/versions/1"`,
+  },
+  {
+    method: "post",
+    path: "/api/presets/{presetId}/rollout",
+    tag: "Library",
+    summary: "Bring every build to the newest version",
+    description:
+      "For every build using the preset: would the three-way merge to the newest version be clean, or does it need hands? apply false answers that (the dry run) and changes nothing; apply true also saves the clean ones, each a normal save with a revision. Released builds are never changed.",
+    permission: "apply:library-all",
+    pathParams: presetId,
+    body: { media: "application/json", schema: rolloutBody },
+    answers: { 200: { description: "One row per build, with its outcome (and, with apply, whether it was saved).", json: rolloutAnswer } },
+    errors: { 400: "The body is not JSON, or apply is not true or false.", 404: NO_PRESET, 405: "Not a POST.", 413: "The body is larger than 4 KB." },
+    curl: `curl ${AUTH} ${JSON_BODY} -d '{"apply": false}' "$HB/api/presets/$ASHFALL/rollout"`,
+  },
+  {
+    method: "get",
+    path: "/api/builds/{buildId}/presets",
+    tag: "Library",
+    summary: "Where a build's presets came from",
+    description: "Each of the build's presets that came from the library: which preset, the version it is on and the library's newest.",
+    permission: "view:library",
+    pathParams: buildId,
+    answers: { 200: { description: "The origins.", json: presetOriginsAnswer } },
+    errors: { 404: NOT_YOURS },
+    curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/presets"`,
+  },
+  {
+    method: "post",
+    path: "/api/builds/{buildId}/presets",
+    tag: "Library",
+    summary: "Add a library preset to a build",
+    description:
+      "Adds a version of a library preset (the newest by default) as a new preset of the build on one of its fonts: looks go to the channels by role, scaled to their pixels. A normal checked save with a revision, only from the config version it was read at. Released builds are never changed.",
+    permission: "apply:library",
+    pathParams: buildId,
+    body: { media: "application/json", schema: addBody },
+    answers: { 201: { description: "Added: the new preset's id, the build's new config version and what did not carry over.", json: presetAddedAnswer } },
+    errors: {
+      400: "The body is not JSON, or a field is missing or wrong (field named in the message).",
+      404: "No such build, library preset or version in your workshop.",
+      405: "Not a POST.",
+      409: "The build is released, or its config changed since configVersion (currentVersion).",
+      413: "The body is larger than 16 KB.",
+      422: "The build has no such font, or the config would have errors (diagnostics).",
+    },
+    curl: `curl ${AUTH} ${JSON_BODY} \\\n  -d "{\\"libraryPresetId\\": \\"$ASHFALL\\", \\"fontId\\": \\"northlight\\", \\"configVersion\\": $(curl -s ${AUTH} "$HB/api/builds/$KESTREL" | jq .configVersion)}" \\\n  "$HB/api/builds/$KESTREL/presets"`,
+  },
+  {
+    method: "get",
+    path: "/api/builds/{buildId}/preset-updates",
+    tag: "Library",
+    summary: "Library updates waiting for a build",
+    description: "The build's presets on an older library version than the newest: the library's changes in words, and the places where they collide with the build's own edits (each needs a choice when applying).",
+    permission: "view:library",
+    pathParams: buildId,
+    answers: { 200: { description: "The updates available (empty when every preset is current).", json: presetUpdatesAnswer } },
+    errors: { 404: NOT_YOURS },
+    curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/preset-updates"`,
+  },
+  {
+    method: "post",
+    path: "/api/builds/{buildId}/preset-updates",
+    tag: "Library",
+    summary: "Apply a library update to a build's preset",
+    description:
+      'Merges the newest library version into one of the build\'s presets (three-way, from the version it is on): a normal checked save with a revision. Every collision needs a choice, "mine" or "theirs", keyed by its path; otherwise 409 lists them and nothing is saved.',
+    permission: "apply:library",
+    pathParams: buildId,
+    body: { media: "application/json", schema: applyBody },
+    answers: { 200: { description: "Applied: the build's new config version and the library version it is on.", json: presetUpdatedAnswer } },
+    errors: {
+      400: "The body is not JSON, or a field is missing or wrong (field named in the message).",
+      404: "No such build, or that preset did not come from the library.",
+      405: "Not a POST.",
+      409: "Collisions without a choice (conflicts), already on the newest version, a released build, or a config changed since configVersion (currentVersion).",
+      413: "The body is larger than 256 KB.",
+      422: "The merged preset would give the config errors (diagnostics).",
+    },
+    curl: `curl ${AUTH} ${JSON_BODY} \\\n  -d "{\\"presetId\\": \\"ashfall\\", \\"configVersion\\": $(curl -s ${AUTH} "$HB/api/builds/$KESTREL" | jq .configVersion), \\"choices\\": {}}" \\\n  "$HB/api/builds/$KESTREL/preset-updates"`,
   },
   {
     method: "get",

@@ -8,6 +8,7 @@ import { diagnosticSchema } from "../checks/diagnostics";
 import { errorKindSchema, positionedErrorSchema } from "../template/error-list";
 import { BUILD_STATUSES, ROLES } from "../db/types";
 import { CUES } from "../config/schema";
+import { presetBodySchema } from "../library/format";
 
 const isoTime = z.string().meta({ description: "A time in ISO 8601 (UTC), e.g. 2026-12-03T08:00:00.000Z.", format: "date-time" });
 const int = () => z.number().int();
@@ -16,6 +17,22 @@ const int = () => z.number().int();
 export const findingSchema = z
   .object({ severity: z.enum(["error", "warning", "info"]), code: z.string(), path: z.string(), message: z.string() })
   .meta({ id: "Finding" });
+
+/** A place where the library's changes and a build's own edits collide: the key for a choice. */
+export const conflictSchema = z
+  .strictObject({
+    path: z.string().meta({ description: "The place's stable address: the key in choices." }),
+    text: z.string().meta({ description: "Where and what, in words." }),
+    base: z.string().meta({ description: "The value in the library version the build started from." }),
+    mine: z.string().meta({ description: "The build's value." }),
+    theirs: z.string().meta({ description: "The newest library version's value." }),
+  })
+  .meta({ id: "MergeConflict" });
+
+/** A build using a library preset (a version of it). */
+export const presetUseSchema = z
+  .strictObject({ buildId: z.string(), buildName: z.string(), status: z.enum(BUILD_STATUSES), presetId: z.string().meta({ description: "The build's preset id." }), version: int().meta({ description: "The library version it is on." }) })
+  .meta({ id: "PresetUse" });
 
 /**
  * The one error shape of the API (`ApiErrorBody` in app/lib/web/http.server.ts): every 4xx and
@@ -32,6 +49,9 @@ export const apiErrorSchema = z
     kinds: z.array(errorKindSchema).optional().meta({ description: "The distinct kinds of error, most frequent first." }),
     findings: z.array(findingSchema).optional().meta({ description: "Why a bundle cannot be built." }),
     currentVersion: int().nullable().optional().meta({ description: "A stale save: the version to read again and start from." }),
+    latestVersion: int().nullable().optional().meta({ description: "A stale library publish: the newest version, to read again and start from." }),
+    conflicts: z.array(conflictSchema).optional().meta({ description: "A library update whose collisions with the build's edits need a choice each." }),
+    builds: z.array(presetUseSchema).optional().meta({ description: "The builds that use a library version, so it cannot be deleted." }),
   })
   .meta({ id: "ApiError" });
 
@@ -213,3 +233,126 @@ export const bundlePlanAnswer = z.strictObject({
   files: z.array(z.strictObject({ path: z.string(), size: int(), sha256: z.string(), stored: z.boolean().meta({ description: "A font file from storage (true) or a text made for the card." }) })),
   findings: z.array(findingSchema),
 });
+
+// ------------------------------------------------------------------ the preset library
+
+const versionSummary = {
+  version: int(),
+  changelog: z.string(),
+  authorName: z.string().nullable(),
+  createdAt: isoTime,
+  errorCount: int(),
+  warningCount: int(),
+};
+
+export const libraryListAnswer = z.strictObject({
+  total: int(),
+  page: int(),
+  perPage: int(),
+  presets: z.array(
+    z.strictObject({
+      id: z.string(),
+      name: z.string(),
+      tags: z.array(z.string()),
+      latestVersion: int().nullable(),
+      publishedAt: isoTime,
+      buildCount: int().meta({ description: "How many builds use any version of it." }),
+      buildNames: z.array(z.string()),
+      url: z.string(),
+    }),
+  ),
+});
+
+/** A version published (a new preset, or a new version of one). */
+export const presetPublishedAnswer = z.strictObject({
+  presetId: z.string(),
+  version: int(),
+  url: z.string().meta({ description: "Where the version is read." }),
+  diagnostics: z.array(diagnosticSchema).meta({ description: "The validator's warnings (a preset with errors is refused)." }),
+});
+
+/** A preset file imported as a new library preset. */
+export const presetImportedAnswer = z.strictObject({
+  presetId: z.string(),
+  versions: int().meta({ description: "How many versions were imported (renumbered from 1)." }),
+  url: z.string(),
+});
+
+export const libraryPresetAnswer = z.strictObject({
+  id: z.string(),
+  name: z.string(),
+  tags: z.array(z.string()),
+  notes: z.string(),
+  latestVersion: int().nullable(),
+  publishedAt: isoTime,
+  versions: z.array(z.strictObject({ ...versionSummary, url: z.string() })).meta({ description: "Newest first." }),
+  builds: z.array(presetUseSchema),
+});
+
+export const libraryVersionsAnswer = z.strictObject({ versions: z.array(z.strictObject(versionSummary)).meta({ description: "Newest first." }) });
+
+export const libraryVersionAnswer = z.strictObject({
+  presetId: z.string(),
+  ...versionSummary,
+  body: presetBodySchema.meta({ description: "The preset body: name, tags, notes and looks by channel role (each with the pixel count it was made on); send it back as preset to publish a new version." }),
+  previousVersion: int().nullable(),
+  changes: z.array(z.string()).meta({ description: "What changed from the previous version, in words." }),
+});
+
+export const libraryVersionDeletedAnswer = z.strictObject({ deleted: int().meta({ description: "The version number removed." }) });
+
+export const rolloutAnswer = z.strictObject({
+  target: int().meta({ description: "The newest version, which the builds are brought to." }),
+  rows: z.array(
+    z.strictObject({
+      buildId: z.string(),
+      buildName: z.string(),
+      presetId: z.string(),
+      presetName: z.string(),
+      fromVersion: int(),
+      outcome: z.enum(["clean", "conflicts", "released", "current", "missing"]).meta({ description: "clean: merges without a choice; conflicts: needs hands; released: never changed; current: already there; missing: the preset is gone from the build." }),
+      conflicts: z.array(conflictSchema),
+      applied: z.boolean().optional().meta({ description: "With apply: whether this build was saved." }),
+      error: z.string().optional().meta({ description: "With apply: why a clean build was not saved (it changed meanwhile)." }),
+    }),
+  ),
+});
+
+const libraryNote = z.strictObject({ kind: z.enum(["skipped-role", "no-look", "dropped-mirror", "duplicate-role"]), text: z.string() });
+
+export const presetOriginsAnswer = z.strictObject({
+  origins: z.array(
+    z.strictObject({
+      presetId: z.string().meta({ description: "The build's preset id." }),
+      libraryPresetId: z.string(),
+      libraryName: z.string(),
+      version: int().meta({ description: "The library version the build's preset is on." }),
+      latest: int().meta({ description: "The library's newest version." }),
+    }),
+  ),
+});
+
+export const presetAddedAnswer = z.strictObject({
+  presetId: z.string().meta({ description: "The new preset's id in the build." }),
+  version: int().meta({ description: "The build's new config version." }),
+  libraryVersion: int(),
+  notes: z.array(libraryNote).meta({ description: "What did not carry over: roles the rig lacks, channels left with no look." }),
+});
+
+export const presetUpdatesAnswer = z.strictObject({
+  updates: z.array(
+    z.strictObject({
+      presetId: z.string(),
+      presetName: z.string(),
+      libraryPresetId: z.string(),
+      libraryName: z.string(),
+      from: int(),
+      to: int(),
+      changes: z.array(z.string()).meta({ description: "The library's changes from → to, in words." }),
+      conflicts: z.array(conflictSchema),
+      notes: z.array(z.string()),
+    }),
+  ),
+});
+
+export const presetUpdatedAnswer = z.strictObject({ version: int().meta({ description: "The build's new config version." }), libraryVersion: int() });

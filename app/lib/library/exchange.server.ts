@@ -25,7 +25,9 @@ export async function exportPreset(db: Db, a: Actor, presetId: string, version?:
 }
 
 /** A new library preset from a file: its versions renumbered from 1 in order, all or nothing. */
-export async function importPreset(db: Db, a: Actor, input: unknown): Promise<Outcome> {
+export type Imported = { presetId: string; versions: number; url: string };
+
+export async function importPreset(db: Db, a: Actor, input: unknown): Promise<Outcome<Imported>> {
   const c = checkImport(input);
   if (!c.ok) return { status: 422, body: { error: c.message, diagnostics: c.diagnostics } };
   const r = await repo.importLibraryPreset(db, a.workshopId, a.userId, c);

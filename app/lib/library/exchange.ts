@@ -14,7 +14,8 @@ export const PRESET_FORMAT = "hiltbench.preset/1" as const;
 export const MAX_PRESET_DOCUMENT_BYTES = 1024 * 1024;
 export const MAX_IMPORT_VERSIONS = 50;
 
-const documentSchema = z.strictObject({
+/** A preset file; POST /api/presets imports one and GET /api/presets/:id/export answers one. */
+export const presetDocumentSchema = z.strictObject({
   format: z.literal(PRESET_FORMAT),
   name: textSchema().trim().min(1).max(60),
   tags: presetBodySchema.shape.tags,
@@ -32,7 +33,7 @@ const documentSchema = z.strictObject({
     .max(MAX_IMPORT_VERSIONS, `a preset file holds at most ${MAX_IMPORT_VERSIONS} versions`),
 });
 
-export type PresetDocument = z.infer<typeof documentSchema>;
+export type PresetDocument = z.infer<typeof presetDocumentSchema>;
 export type ExportVersion = { version: number; changelog: string; createdAt: Date; body: unknown };
 
 /** The document for some versions of a preset (oldest first). */
@@ -59,7 +60,7 @@ export function checkImport(input: unknown): ImportCheck {
   const format = (input as { format?: unknown } | null)?.format;
   if (format !== PRESET_FORMAT)
     return { ok: false, message: `This file's format is ${JSON.stringify(format)}; this Hiltbench reads "${PRESET_FORMAT}" preset files. Export it again from a Hiltbench that writes that form.`, diagnostics: [] };
-  const parsed = documentSchema.safeParse(input);
+  const parsed = presetDocumentSchema.safeParse(input);
   if (!parsed.success) return { ok: false, message: "The preset file does not have the expected shape; nothing was imported.", diagnostics: structureDiagnostics(parsed.error.issues, input) };
   const doc = parsed.data;
   const numbers = doc.versions.map((v) => v.version);

@@ -32,18 +32,34 @@ export function firstIssue(e: z.ZodError): string {
   return `${at}: ${i.message}; nothing was changed.`;
 }
 
+/** ?q=&tag=&page=&perPage= with sane bounds; anything odd falls back to the default (the API document shows it). */
+export const libraryListQuerySchema = z.object({
+  q: z
+    .string()
+    .optional()
+    .transform((s) => {
+      const q = (s ?? "").trim().slice(0, 60);
+      return q && !/[\u0000\uD800-\uDFFF]/.test(q) ? q : undefined;
+    })
+    .catch(undefined)
+    .meta({ description: "Part of a preset's name (at most 60 characters are used)." }),
+  tag: z
+    .string()
+    .optional()
+    .transform((s) => {
+      const t = (s ?? "").trim();
+      return tagSchema.safeParse(t).success ? t : undefined;
+    })
+    .catch(undefined)
+    .meta({ description: "Only presets with this tag." }),
+  page: z.coerce.number().int().min(1).max(100000).catch(1).meta({ description: "The page, from 1." }),
+  perPage: z.coerce.number().int().min(1).max(100).catch(20).meta({ description: "Presets per page, 1 to 100 (20)." }),
+});
+
 export type ListQuery = { q?: string; tag?: string; page: number; perPage: number };
 
-/** ?q=&tag=&page=&perPage= with sane bounds; anything odd falls back to the default. */
 export function parseListQuery(url: URL): ListQuery {
-  const int = (k: string, d: number, max: number) => {
-    const n = Number(url.searchParams.get(k));
-    return Number.isInteger(n) && n >= 1 && n <= max ? n : d;
-  };
-  const q = (url.searchParams.get("q") ?? "").trim().slice(0, 60);
-  const tagRaw = (url.searchParams.get("tag") ?? "").trim();
-  const tag = tagSchema.safeParse(tagRaw).success ? tagRaw : undefined;
-  return { q: q && !/[\u0000\uD800-\uDFFF]/.test(q) ? q : undefined, tag, page: int("page", 1, 100000), perPage: int("perPage", 20, 100) };
+  return libraryListQuerySchema.parse(Object.fromEntries(url.searchParams));
 }
 
 /** A version number in a path: a whole number from 1. */

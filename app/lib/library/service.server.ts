@@ -4,6 +4,7 @@
 // `…For(viewer, …)` wrappers bind the app's database for routes.
 import type { Kysely } from "kysely";
 import type { Viewer } from "../auth/auth.server";
+import type { ApiErrorDetails } from "../web/http.server";
 import { storeCheckedConfigIn } from "../checks/save.server";
 import { validate } from "../checks/validate";
 import type { Diagnostic } from "../checks/diagnostics";
@@ -24,9 +25,14 @@ type Db = Kysely<Database>;
 export type Actor = { workshopId: string; userId: string | null };
 export const actorOf = (v: Viewer): Actor => ({ workshopId: v.workshop.id, userId: v.user.id });
 
-/** What the routes answer: a status and a JSON-able body. */
-export type Outcome<T = unknown> = { status: number; body: T };
-const refuse = (status: number, error: string, more: Record<string, unknown> = {}): Outcome => ({ status, body: { error, ...more } });
+/** A refusal: a 4xx and the API's error message with its details (the routes answer it with `apiError`). */
+export type Refusal = { status: number; body: { error: string } & ApiErrorDetails };
+/** What the routes answer: a status and a JSON-able body, or a refusal. */
+export type Outcome<T = unknown> = { status: 200 | 201; body: T } | Refusal;
+export const refused = (r: Outcome<unknown>): r is Refusal => r.status >= 400;
+const refuse = (status: number, error: string, more: ApiErrorDetails = {}): Refusal => ({ status, body: { error, ...more } });
+
+export type Published = { presetId: string; version: number; url: string; diagnostics: Diagnostic[] };
 
 /** A stored body read back (versions are checked before they are stored; a broken one is reported, not trusted). */
 export function readBody(raw: unknown): PresetBody {
@@ -38,7 +44,7 @@ export function readBody(raw: unknown): PresetBody {
 export type PublishRequest = { presetId: string | null; baseVersion: number | null; body: unknown; changelog: string };
 
 /** Publish a body as a new preset (presetId null) or a new version over `baseVersion`: 201, 409 stale, 422 with diagnostics. */
-export async function publish(db: Db, a: Actor, req: PublishRequest): Promise<Outcome> {
+export async function publish(db: Db, a: Actor, req: PublishRequest): Promise<Outcome<Published>> {
   const changelog = req.changelog.trim();
   if (!changelog) return refuse(422, "Say in one line what this version changes (the changelog); nothing was published.");
   if (changelog.length > 200) return refuse(422, "The changelog is one line of at most 200 characters; nothing was published.");
@@ -53,7 +59,7 @@ export async function publish(db: Db, a: Actor, req: PublishRequest): Promise<Ou
   return publishOutcome(r, req.baseVersion, checked.diagnostics);
 }
 
-function publishOutcome(r: repo.PublishResult, baseVersion: number | null, diagnostics: Diagnostic[]): Outcome {
+function publishOutcome(r: repo.PublishResult, baseVersion: number | null, diagnostics: Diagnostic[]): Outcome<Published> {
   if (r.kind === "missing") return refuse(404, "No library preset with this id in your workshop.");
   if (r.kind === "name-taken") return refuse(409, "Another library preset already has this name; choose another name, or publish a new version of that one.");
   if (r.kind === "stale")
@@ -67,24 +73,23 @@ export type SaveFromBuild = { buildId: string; presetId: string; name?: string; 
  * "Save to library" on a build's preset: a new library preset, or a new version of the one it
  * came from. The build's preset then is that version, so its origin moves to it.
  */
-export async function saveFromBuild(db: Db, a: Actor, req: SaveFromBuild): Promise<Outcome> {
+export async function saveFromBuild(db: Db, a: Actor, req: SaveFromBuild): Promise<Outcome<Published & { notes?: Note[] }>> {
   const build = await getBuild(db, { workshopId: a.workshopId }, req.buildId);
   if (!build) return refuse(404, "No build with this id in your workshop.");
   const made = bodyFromBuildPreset(build.config, req.presetId, { name: req.name, tags: req.tags, notes: req.notes });
   if (!made) return refuse(404, "The build has no preset with this id.");
   const out = await publish(db, a, { presetId: req.libraryPresetId, baseVersion: req.baseVersion, body: made.body, changelog: req.changelog });
-  if (out.status === 201) {
-    const { presetId, version } = out.body as { presetId: string; version: number };
-    await repo.setOrigin(db, a.workshopId, build.id, req.presetId, presetId, version);
-    (out.body as Record<string, unknown>).notes = made.notes;
-  }
-  return out;
+  if (refused(out)) return out;
+  await repo.setOrigin(db, a.workshopId, build.id, req.presetId, out.body.presetId, out.body.version);
+  return { status: out.status, body: { ...out.body, notes: made.notes } };
 }
 
 export type AddRequest = { buildId: string; libraryPresetId: string; version: number | null; fontId: string; configVersion: number; name?: string };
 
 /** Add a library preset to a build (a normal checked save, with its origin recorded in the same transaction). */
-export async function addFromLibrary(db: Db, a: Actor, req: AddRequest): Promise<Outcome> {
+export type Added = { presetId: string; version: number; libraryVersion: number; notes: Note[] };
+
+export async function addFromLibrary(db: Db, a: Actor, req: AddRequest): Promise<Outcome<Added>> {
   const build = await getBuild(db, { workshopId: a.workshopId }, req.buildId);
   if (!build) return refuse(404, "No build with this id in your workshop.");
   if (build.status === "released") return refuse(409, "This build is released; released builds are never changed. Nothing was added.");
@@ -95,7 +100,7 @@ export async function addFromLibrary(db: Db, a: Actor, req: AddRequest): Promise
   if (!v) return refuse(404, `The library preset has no version ${version}.`);
   if (!build.config.fonts.some((f) => f.id === req.fontId)) return refuse(422, `The build has no font "${req.fontId}"; choose one of its fonts. Nothing was added.`);
   const { config, presetId, notes } = addToConfig(build.config, readBody(v.body), { fontId: req.fontId, name: req.name });
-  return db.transaction().execute(async (trx) => {
+  return db.transaction().execute(async (trx): Promise<Outcome<Added>> => {
     const r = await storeCheckedConfigIn(trx, a.workshopId, build.id, config, req.configVersion, { author: a.userId, message: `Added ${preset.name} v${version} from the library`, known: () => validate(build.config) });
     if (r.kind === "invalid") return refuse(422, `With this preset the config would have errors; nothing was added.`, { diagnostics: r.errors });
     if (r.kind === "stale") return refuse(409, r.message, { currentVersion: r.currentVersion });
@@ -137,7 +142,7 @@ export async function updatesFor(db: Db, a: Actor, build: { id: string; config: 
 export type ApplyRequest = { buildId: string; presetId: string; configVersion: number; choices: Record<string, Side> };
 
 /** Apply the newest library version to one build preset; every collision must have been decided. */
-export async function applyUpdate(db: Db, a: Actor, req: ApplyRequest): Promise<Outcome> {
+export async function applyUpdate(db: Db, a: Actor, req: ApplyRequest): Promise<Outcome<{ version: number; libraryVersion: number }>> {
   const build = await getBuild(db, { workshopId: a.workshopId }, req.buildId);
   if (!build) return refuse(404, "No build with this id in your workshop.");
   if (build.status === "released") return refuse(409, "This build is released; released builds are never changed. Nothing was updated.");
@@ -148,7 +153,7 @@ export async function applyUpdate(db: Db, a: Actor, req: ApplyRequest): Promise<
   const plan = planUpdate(build.config, o.presetId, readBody(bodies.get(o.version)), readBody(bodies.get(o.latest)), req.choices)!;
   const undecided = plan.conflicts.filter((c) => req.choices[c.path] !== "mine" && req.choices[c.path] !== "theirs");
   if (undecided.length > 0) return refuse(409, `${undecided.length} collision${undecided.length === 1 ? "" : "s"} between the library's changes and this build's need a choice; nothing was applied.`, { conflicts: undecided });
-  return db.transaction().execute(async (trx) => {
+  return db.transaction().execute(async (trx): Promise<Outcome<{ version: number; libraryVersion: number }>> => {
     const r = await storeCheckedConfigIn(trx, a.workshopId, build.id, applyPlan(build.config, plan), req.configVersion, { author: a.userId, message: `Updated ${plan.merged.name} to ${o.libraryName} v${o.latest} from the library`, known: () => validate(build.config) });
     if (r.kind === "invalid") return refuse(422, "The merged preset would give the config errors; nothing was applied.", { diagnostics: r.errors });
     if (r.kind === "stale") return refuse(409, r.message, { currentVersion: r.currentVersion });
@@ -165,9 +170,9 @@ export type RolloutReport = { target: number; rows: (DryRunRow & { applied?: boo
  * transaction, read afresh, so a build changed since the dry run is merged again or left).
  * Released builds are never changed.
  */
-export async function rollOut(db: Db, a: Actor, libraryPresetId: string, apply: boolean): Promise<Outcome<RolloutReport | { error: string }>> {
+export async function rollOut(db: Db, a: Actor, libraryPresetId: string, apply: boolean): Promise<Outcome<RolloutReport>> {
   const preset = await repo.getLibraryPreset(db, a.workshopId, libraryPresetId);
-  if (!preset || preset.versions.length === 0) return refuse(404, "No library preset with this id in your workshop.") as Outcome<{ error: string }>;
+  if (!preset || preset.versions.length === 0) return refuse(404, "No library preset with this id in your workshop.");
   const target = preset.versions[0].version;
   const builds = await repo.buildsForDryRun(db, a.workshopId, preset.id);
   const needed = [...new Set([target, ...builds.map((b) => b.version)])];

@@ -9,7 +9,9 @@ import { DATABASE_DOWN_MESSAGE, isDatabaseUnavailable } from "../db/unavailable"
 /**
  * What may ride along with an API error, where it applies: the form field or query parameter at
  * fault, the validator's diagnostics, positioned template/config errors (the first 50, their
- * total and kinds), the bundle's findings, the version a stale save should start from.
+ * total and kinds), the bundle's findings, the version a stale save should start from; for the
+ * preset library, the newest version a stale publish missed, the merge collisions that need a
+ * choice, and the builds that keep a version from being deleted.
  */
 export type ApiErrorDetails = {
   field?: string;
@@ -19,6 +21,9 @@ export type ApiErrorDetails = {
   kinds?: readonly object[];
   findings?: readonly object[];
   currentVersion?: number | null;
+  latestVersion?: number | null;
+  conflicts?: readonly object[];
+  builds?: readonly object[];
 };
 
 /** The one error shape of the API: the HTTP status again, a message for a person, and the details that apply. */
@@ -35,6 +40,12 @@ export function fail(status: number, message: string, details?: ApiErrorDetails)
 export function apiError(status: number, message: string, details: ApiErrorDetails = {}, init: ResponseInit = {}): Response {
   const body: ApiErrorBody = { status, error: message, ...details };
   return json(body, { ...init, status });
+}
+
+/** A concern's refusal (`{ status, body: { error, ...details } }`, e.g. the library's) as an API error answer. */
+export function refusalAnswer(r: { status: number; body: { error: string } & ApiErrorDetails }): Response {
+  const { error, ...details } = r.body;
+  return apiError(r.status, error, details);
 }
 
 export function json(body: unknown, init: ResponseInit = {}): Response {
