@@ -114,11 +114,10 @@ function build() {
           bearerToken: { type: "http", scheme: "bearer", description: "A personal API token (hbt_…), made on the Account page; it acts with its owner's role." },
           session: { type: "apiKey", in: "cookie", name: "__session", description: "The app's own session cookie (signed-in pages)." },
         },
-        schemas: { ApiError: apiErrorSchema },
       },
       paths,
     },
-    { reused: "ref" },
+    { reused: "inline" },
   );
 }
 
