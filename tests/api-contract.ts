@@ -17,6 +17,15 @@ const pointer = (...parts: string[]) => parts.map((p) => encodeURIComponent(p.re
 const pathPattern = (path: string) =>
   new RegExp(`^${path.split("/").map((seg) => (/^\{[^}]+\}$/.test(seg) ? "[^/]+" : seg.replace(/[.*+?^$()|[\]\\{}]/g, "\\$&"))).join("/")}$`);
 
+const decodes = (path: string) => {
+  try {
+    decodeURIComponent(path);
+    return true;
+  } catch {
+    return false;
+  }
+};
+
 export class ApiContract {
   private ajv = new Ajv2020({ strict: false, validateFormats: false, allErrors: true });
   private routes: { path: string; re: RegExp; literal: number }[];
@@ -35,6 +44,9 @@ export class ApiContract {
     const method = a.method.toLowerCase();
     if (method === "head" || method === "options" || (a.status >= 300 && a.status < 400 && a.status !== 304)) return null;
     const where = `${a.method.toUpperCase()} ${url.pathname} → ${a.status}`;
+    // An address that is not valid percent-encoded UTF-8 is refused by the HTTP server itself
+    // (react-router-serve's Express, with its own small HTML page) before the app sees it.
+    if (a.status === 400 && !decodes(url.pathname)) return null;
     // The router serves /api/builds/ as /api/builds.
     const path = url.pathname.length > 1 ? url.pathname.replace(/\/+$/, "") : url.pathname;
     const route = this.routes.find((r) => r.re.test(path));

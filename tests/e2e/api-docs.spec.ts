@@ -46,7 +46,7 @@ test("the API reference is public and readable, with a curl example per route an
   await expect(page.getByRole("region", { name: "Introduction" })).toContainText("/api/presets?q=Ashfall");
 });
 
-test("the document is served as OpenAPI 3.1 JSON without sign-in, and an unknown API address is a JSON 404", async ({ request, sql }) => {
+test("the document is served as OpenAPI 3.1 JSON without sign-in; an unknown API address is a JSON 404, an unoffered method a JSON 405", async ({ request, sql }) => {
   const doc = await request.get(`${BASE_URL}/api/openapi.json`, { headers: { Cookie: "" } });
   expect(doc.status()).toBe(200);
   expect(doc.headers()["content-type"]).toContain("application/json");
@@ -60,6 +60,13 @@ test("the document is served as OpenAPI 3.1 JSON without sign-in, and an unknown
     expect(r.status(), path).toBe(404);
     expect(r.headers()["content-type"]).toContain("application/json");
     expect(await r.json()).toEqual({ status: 404, error: expect.stringContaining("/api/docs") });
+  }
+
+  // A method a route does not offer: 405 in the same shape, pointing at the reference.
+  for (const [method, path] of [["PUT", "/api/me"], ["POST", "/api/builds"], ["POST", "/api/openapi.json"]] as const) {
+    const r = await request.fetch(`${BASE_URL}${path}`, { method, headers: { Cookie: "" }, data: {} });
+    expect(r.status(), `${method} ${path}`).toBe(405);
+    expect(await r.json()).toEqual({ status: 405, error: `${method} is not offered at ${path}; the methods each route takes are listed at /api/docs.` });
   }
 
   // With a token: the same one shape for a refusal the route makes.

@@ -2,6 +2,8 @@
 // schemas the routes answer with. Built once per process; served at /api/openapi.json and read by
 // the reference page /api/docs (decision 020).
 import { createDocument, type ZodOpenApiOperationObject, type ZodOpenApiPathsObject, type ZodOpenApiResponsesObject } from "zod-openapi";
+import { can } from "../auth/permissions";
+import { ROLES } from "../db/types";
 import { OPERATIONS, type Operation } from "./operations";
 import { apiErrorSchema } from "./shapes";
 
@@ -65,12 +67,15 @@ function responses(op: Operation): ZodOpenApiResponsesObject {
   return out as ZodOpenApiResponsesObject;
 }
 
+/** The roles that hold a permission, in words, from the one policy module. */
+const rolesWith = (p: NonNullable<Operation["permission"]>) => ROLES.filter((r) => can(r, p)).join(", ");
+
 function operation(op: Operation): ZodOpenApiOperationObject {
   return {
     operationId: `${op.method}${op.path.replace(/^\/api/, "").replace(/[{}]/g, "").replace(/[^a-zA-Z0-9]+(.)?/g, (_, c: string | undefined) => (c ?? "").toUpperCase())}`,
     tags: [op.tag],
     summary: op.summary,
-    description: `${op.description}${op.permission ? `\n\nPermission: \`${op.permission}\`.` : "\n\nPublic: no sign-in."}`,
+    description: `${op.description}${op.permission ? `\n\nPermission: \`${op.permission}\` (${rolesWith(op.permission)}).` : "\n\nPublic: no sign-in."}`,
     ...(op.permission ? {} : { security: [] }),
     ...(op.pathParams || op.query ? { requestParams: { ...(op.pathParams ? { path: op.pathParams } : {}), ...(op.query ? { query: op.query } : {}) } } : {}),
     ...(op.body ? { requestBody: { required: true, ...(op.body.description ? { description: op.body.description } : {}), content: { [op.body.media]: { schema: op.body.schema } } } } : {}),
@@ -116,7 +121,6 @@ function build() {
           bearerToken: { type: "http", scheme: "bearer", description: "A personal API token (hbt_…), made on the Account page; it acts with its owner's role." },
           session: { type: "apiKey", in: "cookie", name: "__session", description: "The app's own session cookie (signed-in pages)." },
         },
-        schemas: { ApiError: apiErrorSchema },
       },
       paths,
     },

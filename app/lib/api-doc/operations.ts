@@ -3,6 +3,7 @@
 // (document.ts) is generated from this list; a test fails when a route under /api in
 // app/routes.ts has no entry here. Adding a route = one entry in OPERATIONS (see DEVELOPERS.md).
 import { z } from "zod";
+import type { Permission } from "../auth/permissions";
 import { bundleQuerySchema } from "../bundle/query";
 import { buildQuerySchema } from "../forms/build-forms";
 import { presetDocumentSchema } from "../library/exchange";
@@ -47,7 +48,7 @@ export type Operation = {
   summary: string;
   description: string;
   /** The permission the route asks for (app/lib/auth/permissions.ts); null for a public operation. */
-  permission: string | null;
+  permission: Permission | null;
   tag: "Account" | "Builds" | "Config" | "Rendering" | "Revisions" | "Fonts" | "Bundle" | "Pictures" | "Library" | "Reference";
   pathParams?: z.ZodObject;
   query?: z.ZodObject;

@@ -5,7 +5,8 @@
 //   is not valid percent-encoded UTF-8, so no route parameter ever reaches a query with it;
 // - a form (URL-encoded or multipart, up to FORM_CHECK_BYTES) with such text in a field.
 // JSON bodies are checked where they are read (web/body.server.ts), with the JSON path.
-import { data, type MiddlewareFunction } from "react-router";
+// Under /api it also turns the router's bare 405 (a method no route offers) into the one error shape.
+import { data, isRouteErrorResponse, type MiddlewareFunction } from "react-router";
 import { crossSiteReason } from "./origin";
 import { env } from "../env.server";
 import { badTextReason, findBadFormField } from "../input/edges";
@@ -76,5 +77,20 @@ export const requestGuard: MiddlewareFunction<Response> = async ({ request }, ne
       if (bad) refuse(url, 400, `The field '${bad.path}' ${bad.reason}; nothing was changed.`, bad.path);
     }
   }
-  return next();
+  if (!isApi(url)) return next();
+  // A method a route does not offer: the router's own 405 says only "Unexpected Server Error";
+  // under /api it answers the one error shape instead (routes' own 405s carry their advice).
+  const methodRefused = () => apiError(405, `${method} is not offered at ${url.pathname.slice(0, 200)}; the methods each route takes are listed at /api/docs.`);
+  let res: Response;
+  try {
+    res = await next();
+  } catch (e) {
+    if (isRouteErrorResponse(e) && e.status === 405) return methodRefused();
+    throw e;
+  }
+  if (res.status === 405) {
+    const body = (await res.clone().json().catch(() => null)) as { status?: unknown } | null;
+    if (!body || typeof body.status !== "number") return methodRefused();
+  }
+  return res;
 };
