@@ -155,6 +155,16 @@ test("a card is checked in the browser: missing, extra and changed files; a matc
   await page.getByLabel("The card's files or a zip of them").setInputFiles({ name: "card.zip", mimeType: "application/zip", buffer: png });
   await expect(page.getByRole("alert")).toContainText("Could not read the card's files:");
 
+  // The same zip dragged from the desktop onto the drop area reads the same.
+  const dropped = await page.evaluateHandle((bytes) => {
+    const dt = new DataTransfer();
+    dt.items.add(new File([new Uint8Array(bytes)], "card.zip", { type: "application/zip" }));
+    return dt;
+  }, [...cardZip]);
+  await page.getByTestId("card-drop").dispatchEvent("dragover", { dataTransfer: dropped });
+  await page.getByTestId("card-drop").dispatchEvent("drop", { dataTransfer: dropped });
+  await expect(page.getByTestId("card-verdict")).toHaveText(`1 missing · 1 extra · 2 changed · ${files.size - 3} the same`);
+
   // The card's folder as the computer shows it (its own top folder name), every file intact.
   const dir = mkdtempSync(path.join(tmpdir(), "hb-card-"));
   try {

@@ -114,3 +114,27 @@ test("a reviewer sees the fonts but cannot upload; the API refuses with 403", as
   await api.dispose();
   expect((await state(sql, id)).uploads).toBe(0);
 });
+
+test("a builder drags WAV files onto a font and they are stored and checked", async ({ page, signIn, sql }) => {
+  const id = await freshBuild(sql, `Cinderhawk drop ${Date.now()}`);
+  await signIn("demo-builder");
+  await page.goto(`/builds/${id}/fonts`);
+  const section = page.getByTestId("font-northlight");
+  const files = synthFont(["hum", "swing", "clash", "ignite", "retract"], 130.8);
+  // What the browser hands the page when files from the desktop are dropped: a DataTransfer.
+  const data = await page.evaluateHandle(
+    (list) => {
+      const dt = new DataTransfer();
+      for (const f of list) dt.items.add(new File([new Uint8Array(f.bytes)], f.name, { type: "audio/wav" }));
+      return dt;
+    },
+    files.map((f) => ({ name: f.name, bytes: [...f.bytes] })),
+  );
+  const zone = section.getByTestId("drop-northlight");
+  await zone.dispatchEvent("dragover", { dataTransfer: data });
+  await zone.dispatchEvent("drop", { dataTransfer: data });
+  await expect(section.getByRole("status")).toHaveText("Stored and checked.", { timeout: 30_000 });
+  await expect(section.getByText("Arrived", { exact: true })).toBeVisible();
+  await expect(section.getByTestId("cue-swing")).toHaveText("swing ×2");
+  expect(await state(sql, id)).toMatchObject({ uploads: 1, northlight: { status: "received" } });
+});

@@ -2,6 +2,7 @@
 // hashed here with Web Crypto (SHA-256) and compared with the manifest; nothing is uploaded.
 import { useState } from "react";
 import { cardRelative, compareCard, formatBytes, needsHash, type CardCheck as Result, type ExpectedFile, type FoundFile } from "~/lib/bundle/card-check";
+import { DropZone } from "~/components/DropZone";
 
 type Candidate = { path: string; size: number; bytes: () => Promise<ArrayBuffer> };
 type State = { kind: "idle" } | { kind: "reading"; done: number; total: number } | { kind: "done"; result: Result; source: string } | { kind: "failed"; message: string };
@@ -50,7 +51,6 @@ async function fromFiles(files: File[]): Promise<{ list: Candidate[]; source: st
 
 export function CardCheck({ expected }: { expected: ExpectedFile[] }) {
   const [state, setState] = useState<State>({ kind: "idle" });
-  const [over, setOver] = useState(false);
 
   async function check(load: () => Promise<{ list: Candidate[]; source: string }>) {
     try {
@@ -76,19 +76,12 @@ export function CardCheck({ expected }: { expected: ExpectedFile[] }) {
   const busy = state.kind === "reading";
   return (
     <div className="space-y-4">
-      <div
-        className={`rounded border-2 border-dashed p-4 text-sm ${over ? "border-ember-500 bg-soot-800" : "border-soot-600"}`}
-        onDragOver={(e) => {
-          e.preventDefault();
-          setOver(true);
-        }}
-        onDragLeave={() => setOver(false)}
-        onDrop={(e) => {
-          e.preventDefault();
-          setOver(false);
-          if (busy) return;
-          const entries = [...e.dataTransfer.items].map((i) => i.webkitGetAsEntry?.()).filter((x): x is FileSystemEntry => !!x);
-          const files = [...e.dataTransfer.files];
+      <DropZone
+        busy={busy}
+        testId="card-drop"
+        onDrop={(data) => {
+          const entries = [...data.items].map((i) => i.webkitGetAsEntry?.()).filter((x): x is FileSystemEntry => !!x);
+          const files = [...data.files];
           if (entries.some((x) => x.isDirectory))
             check(async () => {
               const out: Candidate[] = [];
@@ -97,7 +90,6 @@ export function CardCheck({ expected }: { expected: ExpectedFile[] }) {
             });
           else check(() => fromFiles(files));
         }}
-        data-testid="card-drop"
       >
         <p>Drop the card's folder, its files or a zip of them here, or choose them:</p>
         <div className="mt-2 flex flex-wrap items-center gap-2">
@@ -134,7 +126,7 @@ export function CardCheck({ expected }: { expected: ExpectedFile[] }) {
           </label>
         </div>
         <p className="mt-2 text-xs text-iron-400">Files chosen one by one are matched at the card's top level; choose the folder or a zip to check the font folders too. Nothing leaves this computer.</p>
-      </div>
+      </DropZone>
       {busy ? (
         <div className="flex items-center gap-3">
           <progress className="h-2 flex-1" max={Math.max(1, state.total)} value={state.done} aria-label="Reading the card's files" />

@@ -1,13 +1,13 @@
 // Drop or pick a font's WAV files or zips; they go up in one multipart request with a progress
 // bar and a cancel button (XMLHttpRequest reports upload progress; fetch does not yet).
 import { useRef, useState } from "react";
+import { DropZone } from "~/components/DropZone";
 
 type Answer = { error?: string; status?: string };
 type State = { kind: "idle" } | { kind: "sending"; sent: number; total: number } | { kind: "done"; message: string; ok: boolean };
 
 export function FontUpload({ buildId, fontId, fontName, layouts, onDone }: { buildId: string; fontId: string; fontName: string; layouts: string[]; onDone: () => void }) {
   const [state, setState] = useState<State>({ kind: "idle" });
-  const [over, setOver] = useState(false);
   const [layout, setLayout] = useState(layouts[0] ?? "");
   const xhr = useRef<XMLHttpRequest | null>(null);
   const picker = useRef<HTMLInputElement>(null);
@@ -47,20 +47,7 @@ export function FontUpload({ buildId, fontId, fontName, layouts, onDone }: { bui
   const pct = sending && state.total > 0 ? Math.min(100, Math.round((100 * state.sent) / state.total)) : 0;
   return (
     <div className="space-y-2">
-      <div
-        className={`rounded border-2 border-dashed p-4 text-sm ${over ? "border-ember-500 bg-soot-800" : "border-soot-600"}`}
-        onDragOver={(e) => {
-          e.preventDefault();
-          setOver(true);
-        }}
-        onDragLeave={() => setOver(false)}
-        onDrop={(e) => {
-          e.preventDefault();
-          setOver(false);
-          if (!sending) send(e.dataTransfer.files);
-        }}
-        data-testid={`drop-${fontId}`}
-      >
+      <DropZone busy={sending} testId={`drop-${fontId}`} onDrop={(data) => send(data.files)}>
         <p>Drop {fontName}'s WAV files or a zip here, or</p>
         <div className="mt-2 flex flex-wrap items-center gap-2">
           <label className="btn" aria-disabled={sending}>
@@ -90,7 +77,7 @@ export function FontUpload({ buildId, fontId, fontName, layouts, onDone }: { bui
             </label>
           ) : null}
         </div>
-      </div>
+      </DropZone>
       {sending ? (
         <div className="flex items-center gap-3">
           <progress className="h-2 flex-1" max={100} value={pct} aria-label={`Uploading ${fontName}`} />
