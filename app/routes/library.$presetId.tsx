@@ -155,30 +155,8 @@ export default function LibraryPresetPage({ loaderData }: Route.ComponentProps) 
       <section className="card space-y-3" aria-labelledby="compare-h">
         <h2 id="compare-h">Compare versions</h2>
         <Form method="get" className="flex flex-wrap items-end gap-3">
-          <div>
-            <label className="label" htmlFor="cmp-from">
-              From
-            </label>
-            <select id="cmp-from" name="from" className="field w-28" defaultValue={compare.from}>
-              {versions.map((x) => (
-                <option key={x.version} value={x.version}>
-                  v{x.version}
-                </option>
-              ))}
-            </select>
-          </div>
-          <div>
-            <label className="label" htmlFor="cmp-to">
-              To
-            </label>
-            <select id="cmp-to" name="to" className="field w-28" defaultValue={compare.to}>
-              {versions.map((x) => (
-                <option key={x.version} value={x.version}>
-                  v{x.version}
-                </option>
-              ))}
-            </select>
-          </div>
+          <VersionSelect label="From" id="cmp-from" name="from" versions={versions} value={compare.from} />
+          <VersionSelect label="To" id="cmp-to" name="to" versions={versions} value={compare.to} />
           <button type="submit" className="btn">
             Compare
           </button>
@@ -257,6 +235,24 @@ export default function LibraryPresetPage({ loaderData }: Route.ComponentProps) 
           ) : null}
         </section>
       ) : null}
+    </div>
+  );
+}
+
+/** One end of a version comparison: v1, v2, … */
+function VersionSelect({ label, id, name, versions, value }: { label: string; id: string; name: string; versions: { version: number }[]; value: number }) {
+  return (
+    <div>
+      <label className="label" htmlFor={id}>
+        {label}
+      </label>
+      <select id={id} name={name} className="field w-28" defaultValue={value}>
+        {versions.map((x) => (
+          <option key={x.version} value={x.version}>
+            v{x.version}
+          </option>
+        ))}
+      </select>
     </div>
   );
 }

@@ -13,6 +13,7 @@ import { parseJsonText, readFormLimited } from "~/lib/web/body.server";
 import { errorTitle } from "~/lib/web/errors";
 import { failureOf } from "~/lib/web/http.server";
 import type { Route } from "./+types/library._index";
+import { RefusalAlert } from "~/components/library/RefusalAlert";
 
 export const meta: Route.MetaFunction = ({ error }) => [{ title: error ? errorTitle(error) : "Library · Hiltbench" }];
 
@@ -139,20 +140,7 @@ export default function LibraryPage({ loaderData }: Route.ComponentProps) {
               Imported <Link to={`/library/${answer.imported.id}`}>{answer.imported.name}</Link>.
             </p>
           ) : null}
-          {answer?.error ? (
-            <div role="alert" className="rounded-md border border-signal-error px-3 py-2 text-sm" data-testid="import-error">
-              <p>{answer.error}</p>
-              {answer.diagnostics?.length ? (
-                <ul className="list-disc pl-5">
-                  {answer.diagnostics.map((d, i) => (
-                    <li key={i}>
-                      <code>{d.path}</code> {d.message}
-                    </li>
-                  ))}
-                </ul>
-              ) : null}
-            </div>
-          ) : null}
+          {answer?.error ? <RefusalAlert error={answer.error} diagnostics={answer.diagnostics} testId="import-error" /> : null}
           <Form method="post" encType="multipart/form-data" className="flex flex-wrap items-end gap-3">
             <div>
               <label className="label" htmlFor="import-file">

@@ -156,30 +156,8 @@ function CheckResult({ result, source }: { result: Result; source: string }) {
           ? `The card matches the bundle: all ${same.length} files are there and the same.`
           : `${missing.length} missing · ${extra.length} extra · ${changed.length} changed · ${same.length} the same`}
       </p>
-      {missing.length ? (
-        <div>
-          <h4>Missing</h4>
-          <ul className="font-mono text-sm" data-testid="card-missing">
-            {missing.map((m) => (
-              <li key={m.path}>
-                {m.path} <span className="text-iron-400">({formatBytes(m.size)})</span>
-              </li>
-            ))}
-          </ul>
-        </div>
-      ) : null}
-      {extra.length ? (
-        <div>
-          <h4>Extra (not in the bundle)</h4>
-          <ul className="font-mono text-sm" data-testid="card-extra">
-            {extra.map((m) => (
-              <li key={m.path}>
-                {m.path} <span className="text-iron-400">({formatBytes(m.size)})</span>
-              </li>
-            ))}
-          </ul>
-        </div>
-      ) : null}
+      <PathList title="Missing" testId="card-missing" files={missing} />
+      <PathList title="Extra (not in the bundle)" testId="card-extra" files={extra} />
       {changed.length ? (
         <div>
           <h4>Changed</h4>
@@ -199,5 +177,22 @@ function CheckResult({ result, source }: { result: Result; source: string }) {
       ) : null}
       {ignored.length ? <p className="text-xs text-iron-400">Left out: {ignored.length} file(s) computers add to cards by themselves.</p> : null}
     </section>
+  );
+}
+
+/** Files by path and size under a heading; nothing when there are none. */
+function PathList({ title, testId, files }: { title: string; testId: string; files: { path: string; size: number }[] }) {
+  if (!files.length) return null;
+  return (
+    <div>
+      <h4>{title}</h4>
+      <ul className="font-mono text-sm" data-testid={testId}>
+        {files.map((m) => (
+          <li key={m.path}>
+            {m.path} <span className="text-iron-400">({formatBytes(m.size)})</span>
+          </li>
+        ))}
+      </ul>
+    </div>
   );
 }

@@ -5,6 +5,7 @@ import { Form, Link, useNavigation } from "react-router";
 import type { Change } from "~/lib/model-diff";
 import type { Conflict } from "~/lib/model-diff/merge";
 import { ModelChanges } from "../revisions/ModelChanges";
+import { RefusalAlert } from "./RefusalAlert";
 
 type Update = { presetId: string; presetName: string; libraryPresetId: string; libraryName: string; from: number; to: number; changes: Change[]; conflicts: Conflict[]; notes: { text: string }[] };
 type Origin = { presetId: string; libraryPresetId: string; libraryName: string; version: number; latest: number };
@@ -43,20 +44,7 @@ export function LibraryPanel(props: {
           ) : null}
         </div>
       ) : null}
-      {answer?.error ? (
-        <div role="alert" className="rounded-md border border-signal-error px-3 py-2 text-sm" data-testid="library-error">
-          <p>{answer.error}</p>
-          {answer.diagnostics?.length ? (
-            <ul className="mt-1 list-disc pl-5">
-              {answer.diagnostics.slice(0, 10).map((d, i) => (
-                <li key={i}>
-                  <code>{d.path}</code> {d.message}
-                </li>
-              ))}
-            </ul>
-          ) : null}
-        </div>
-      ) : null}
+      {answer?.error ? <RefusalAlert error={answer.error} diagnostics={answer.diagnostics} limit={10} testId="library-error" /> : null}
 
       {updates.map((u) => (
         <div key={u.presetId} className="space-y-2 rounded-md border border-signal-warning p-3" data-testid="update-available">
