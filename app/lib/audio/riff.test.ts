@@ -1,6 +1,9 @@
 import { describe, expect, it } from "vitest";
 import wavefile from "wavefile";
-import { analyzeWavStream } from "./analyze";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { analyzeWavFile, analyzeWavStream } from "./analyze";
 import { readWav, WavReader, type WavReport } from "./riff";
 import { chunk, fmtBody, pcmBytes, riff, simpleWav } from "./wav-build";
 
@@ -216,5 +219,23 @@ describe("broken files get a finding, never a throw", () => {
     const bytes = simpleWav(tone(5000, 2), { channels: 2, bits: 24 });
     const r = await analyzeWavStream((async function* () { for (let i = 0; i < bytes.length; i += 333) yield bytes.subarray(i, i + 333); })());
     expect(r).toEqual(readWav(bytes));
+  });
+
+  it("reads a file on disk through two reused buffers with the same answer as a whole read", async () => {
+    const dir = mkdtempSync(path.join(tmpdir(), "hb-wav-"));
+    try {
+      for (const [bits, float] of [[16, false], [24, false], [32, true]] as const) {
+        const bytes = simpleWav(tone(9001, 2, 0.8), { channels: 2, bits, float });
+        const file = path.join(dir, `t${bits}.wav`);
+        writeFileSync(file, bytes);
+        // Odd piece sizes put samples, chunk headers and the sniffed head across reads.
+        for (const piece of [4099, 333, 1 << 20]) expect(await analyzeWavFile(file, piece)).toEqual(readWav(bytes));
+      }
+      const png = path.join(dir, "hum.wav");
+      writeFileSync(png, Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, ...new Array(5000).fill(0)]));
+      expect((await analyzeWavFile(png, 1000)).findings[0]).toMatchObject({ code: "not-wav" });
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

@@ -2,7 +2,19 @@
 // every offset and length (odd starts, lengths that leave samples outside a whole vector).
 import { randomFillSync } from "node:crypto";
 import { describe, expect, it } from "vitest";
+import { readFileSync } from "node:fs";
+import path from "node:path";
+import { assembleWat } from "../../../scripts/lib/assemble-wat";
+import { KERNELS_WASM_BASE64 } from "./kernels.wasm";
 import { simd16 } from "./simd";
+
+describe("the kernels' bytes", () => {
+  it("are what wabt assembles from kernels.wat today (run `npm run wasm` after editing the text)", async () => {
+    const text = readFileSync(path.join(import.meta.dirname, "kernels.wat"), "utf8");
+    const bytes = await assembleWat("kernels.wat", text);
+    expect(Buffer.from(bytes).toString("base64")).toBe(KERNELS_WASM_BASE64);
+  });
+});
 
 function plain(bytes: Uint8Array, from: number, to: number) {
   let lo = 0, hi = 0, clipped = 0;
@@ -43,6 +55,8 @@ describe("32-bit float SIMD peak", () => {
       return p;
     };
     for (const [from, to] of [[0, 4], [4, 28], [0, 1_200_004], [8, 1_199_996], [400, 400]]) expect(simdPeak32!(bytes, from, to)).toBe(plain(from, to));
+    f[2000] = -Infinity;
+    expect(simdPeak32!(bytes, 0, bytes.length)).toBe(Infinity);
     f[12345] = NaN;
     expect(simdPeak32!(bytes, 0, bytes.length)).toBeNaN();
   });

@@ -5,8 +5,8 @@ import { createHash, randomUUID } from "node:crypto";
 import { createWriteStream } from "node:fs";
 import path from "node:path";
 import { once } from "node:events";
-import { WavReader, type WavReport } from "../audio/riff";
-import { SNIFF_BYTES, sniffNotWav } from "../audio/sniff";
+import { WavAnalysis } from "../audio/analyze";
+import type { WavReport } from "../audio/riff";
 import { UploadRefused } from "./zip.server";
 
 export type StagedFile = { path: string; tmp: string; size: number; sha256: string; wav: WavReport };
@@ -17,10 +17,8 @@ export async function stageWav(source: AsyncIterable<Uint8Array>, filePath: stri
   const tmp = path.join(dir, `${randomUUID()}.wav`);
   const out = createWriteStream(tmp);
   const hash = createHash("sha256");
-  const reader = new WavReader();
+  const analysis = new WavAnalysis();
   let size = 0;
-  let head: Buffer | null = Buffer.alloc(0);
-  let notWav = null;
   try {
     for await (const piece of source) {
       size += piece.length;
@@ -28,18 +26,7 @@ export async function stageWav(source: AsyncIterable<Uint8Array>, filePath: stri
       onBytes(piece.length);
       hash.update(piece);
       if (!out.write(piece)) await once(out, "drain");
-      if (head) {
-        head = Buffer.concat([head, piece]);
-        if (head.length >= SNIFF_BYTES) {
-          notWav = await sniffNotWav(head);
-          reader.push(head);
-          head = null;
-        }
-      } else reader.push(piece);
-    }
-    if (head) {
-      notWav = await sniffNotWav(head);
-      reader.push(head);
+      await analysis.push(piece);
     }
     out.end();
     await once(out, "close");
@@ -47,7 +34,6 @@ export async function stageWav(source: AsyncIterable<Uint8Array>, filePath: stri
     out.destroy();
     throw e;
   }
-  const report = reader.finish();
-  const wav = notWav ? { ...report, ok: false, findings: [notWav] } : report;
+  const wav = await analysis.finish();
   return { path: filePath, tmp, size, sha256: hash.digest("hex"), wav };
 }
