@@ -2,30 +2,24 @@
 // hashed here with Web Crypto (SHA-256) and compared with the manifest; nothing is uploaded.
 import { useState } from "react";
 import { cardRelative, compareCard, formatBytes, needsHash, type CardCheck as Result, type ExpectedFile, type FoundFile } from "~/lib/bundle/card-check";
+import { blobReader, readCardZip } from "~/lib/bundle/card-zip";
 import { DropZone } from "~/components/DropZone";
 
-type Candidate = { path: string; size: number; bytes: () => Promise<ArrayBuffer> };
+type Candidate = { path: string; size: number; bytes: () => Promise<ArrayBuffer | Uint8Array<ArrayBuffer>> };
 type State = { kind: "idle" } | { kind: "reading"; done: number; total: number } | { kind: "done"; result: Result; source: string } | { kind: "failed"; message: string };
 
 /** More entries than any card bundle has: a zip past this is refused before it is read. */
 const MAX_ENTRIES = 20_000;
 
-async function sha256(buf: ArrayBuffer): Promise<string> {
+async function sha256(buf: ArrayBuffer | Uint8Array<ArrayBuffer>): Promise<string> {
   const d = await crypto.subtle.digest("SHA-256", buf);
   return [...new Uint8Array(d)].map((b) => b.toString(16).padStart(2, "0")).join("");
 }
 
+/** A zip is read lazily (card-zip.ts): its table of contents now, each file only when its hash is wanted. */
 async function fromZip(file: File): Promise<Candidate[]> {
-  const { default: JSZip } = await import("jszip");
-  const zip = await JSZip.loadAsync(file);
-  const entries = Object.values(zip.files).filter((e) => !e.dir);
-  if (entries.length > MAX_ENTRIES) throw new Error(`The zip has ${entries.length.toLocaleString("en")} files; a card bundle has far fewer (at most ${MAX_ENTRIES.toLocaleString("en")} are read).`);
-  const out: Candidate[] = [];
-  for (const e of entries) {
-    const data = await e.async("uint8array");
-    out.push({ path: e.name, size: data.length, bytes: async () => data.slice().buffer });
-  }
-  return out;
+  const entries = await readCardZip(file.size, blobReader(file), { maxEntries: MAX_ENTRIES });
+  return entries.map((e) => ({ path: e.path, size: e.size, bytes: e.bytes }));
 }
 
 /** Files dropped as folders: walk them (the File System entries API that drag and drop gives). */
