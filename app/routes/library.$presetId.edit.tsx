@@ -87,7 +87,7 @@ export default function EditLibraryPreset({ loaderData }: Route.ComponentProps) 
           Change the stand-in rig
         </button>
       </Form>
-      <LookEditor key={`${id}-${latest}-${roles.map((r) => r.pixels).join("-")}`} buildId="" initial={config} version={latest} canEdit={canEdit} saveWith={saveWith} />
+      <LookEditor key={`${id}-${latest}-${roles.map((r) => r.pixels).join("-")}`} buildId="" initial={config} version={latest} canEdit={canEdit} saveWith={saveWith} onePreset />
     </div>
   );
 }

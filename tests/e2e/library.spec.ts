@@ -189,6 +189,9 @@ test("a library preset in the look editor on a stand-in rig: choose the pixels, 
   await page.getByRole("button", { name: "Change the stand-in rig" }).click();
   await expect(page).toHaveURL(/px\.main-blade=100/);
   await expect(page.getByRole("region", { name: `Live preview of Forge ${s}` })).toBeVisible();
+  // One preset only: nothing here could add a preset that publishing would then leave out.
+  await expect(page.getByText("A library preset is one preset")).toBeVisible();
+  for (const name of ["Add preset", "Duplicate", "Delete preset"]) await expect(page.getByRole("button", { name, exact: true })).toHaveCount(0);
   await page.getByLabel("Preset name").fill(`Forge ${s} II`);
   await page.getByLabel("What changed").fill("Renamed, made on a 100-pixel blade");
   await page.getByRole("button", { name: "Save", exact: true }).click();

@@ -30,6 +30,7 @@ export function LookEditor({
   version: initialVersion,
   canEdit,
   saveWith,
+  onePreset = false,
 }: {
   buildId: string;
   initial: Config;
@@ -37,6 +38,8 @@ export function LookEditor({
   canEdit: boolean;
   /** Save somewhere else than the build's config (the library's stand-in rig); no pictures then. */
   saveWith?: SaveWith;
+  /** The editor holds exactly one preset: adding, duplicating and deleting presets are not offered. */
+  onePreset?: boolean;
 }) {
   const [state, rawDispatch] = useReducer(editorReducer, initial, initEditor);
   const dispatch = useCallback((a: EditorAction) => rawDispatch(a), []);
@@ -50,7 +53,7 @@ export function LookEditor({
   const index = useMemo(() => indexDiagnostics(checks.diagnostics), [checks.diagnostics]);
   const dirty = isDirty(state);
   const readOnly = !canEdit;
-  const context = useMemo(() => ({ checks: index, readOnly }), [index, readOnly]);
+  const context = useMemo(() => ({ checks: index, readOnly, onePreset }), [index, readOnly, onePreset]);
 
   const presetIndex = state.config.presets.findIndex((p) => p.id === state.selectedPresetId);
   const preset = presetIndex >= 0 ? state.config.presets[presetIndex] : undefined;

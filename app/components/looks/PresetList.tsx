@@ -8,7 +8,7 @@ import { EditorContext } from "./controls";
 import { dragProps, reorderKey } from "./reorder";
 
 export function PresetList({ config, selectedId, checks, dispatch }: { config: Config; selectedId: string | null; checks: DiagnosticIndex; dispatch: (a: EditorAction) => void }) {
-  const { readOnly } = useContext(EditorContext);
+  const { readOnly, onePreset } = useContext(EditorContext);
   const presets = config.presets;
   const move = (from: number, to: number) => {
     const p = presets[from];
@@ -20,7 +20,7 @@ export function PresetList({ config, selectedId, checks, dispatch }: { config: C
     <nav aria-label="Presets" className="card space-y-3">
       <div className="flex items-center justify-between">
         <h2 className="text-lg">Presets</h2>
-        {readOnly ? null : (
+        {readOnly || onePreset ? null : (
           <button type="button" className="btn" onClick={() => dispatch({ type: "preset/add" })}>
             Add preset
           </button>
@@ -77,7 +77,11 @@ export function PresetList({ config, selectedId, checks, dispatch }: { config: C
           );
         })}
       </ol>
-      {readOnly ? null : <p className="text-xs text-iron-400">Reorder: drag, the arrows, or Alt+↑ / Alt+↓ on a preset.</p>}
+      {onePreset ? (
+        <p className="text-xs text-iron-400">A library preset is one preset: it is edited here alone, and other presets belong in a build.</p>
+      ) : readOnly ? null : (
+        <p className="text-xs text-iron-400">Reorder: drag, the arrows, or Alt+↑ / Alt+↓ on a preset.</p>
+      )}
     </nav>
   );
 }

@@ -10,7 +10,7 @@ export function PresetSettings({ config, presetIndex, dispatch }: { config: Conf
   const preset = config.presets[presetIndex];
   return (
     <EditorContext.Consumer>
-      {({ checks, readOnly }) => (
+      {({ checks, readOnly, onePreset }) => (
         <section className="card space-y-3" aria-label={`Preset ${preset.name}`}>
           <div className="grid items-start gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,1fr)_auto]">
             <div data-path={presetPath(presetIndex, "name")}>
@@ -36,7 +36,7 @@ export function PresetSettings({ config, presetIndex, dispatch }: { config: Conf
               labels={Object.fromEntries(config.fonts.map((f) => [f.id, `${f.name}${f.status === "received" ? "" : ` (${f.status})`}`]))}
               onChange={(fontId) => dispatch({ type: "preset/font", presetId: preset.id, fontId })}
             />
-            {readOnly ? null : (
+            {readOnly || onePreset ? null : (
               <div className="flex gap-2 sm:pt-5">
                 <button type="button" className="btn" onClick={() => dispatch({ type: "preset/duplicate", presetId: preset.id })}>
                   Duplicate

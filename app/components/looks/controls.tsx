@@ -5,7 +5,8 @@ import { createContext, useContext, useEffect, useId, useState, type ReactNode }
 import type { Diagnostic } from "~/lib/checks/diagnostics";
 import { EMPTY_INDEX, type DiagnosticIndex } from "~/lib/looks/diagnostic-index";
 
-export const EditorContext = createContext<{ checks: DiagnosticIndex; readOnly: boolean }>({ checks: EMPTY_INDEX, readOnly: true });
+/** onePreset: the editor holds exactly one preset (the library's stand-in rig): no add, duplicate or delete. */
+export const EditorContext = createContext<{ checks: DiagnosticIndex; readOnly: boolean; onePreset?: boolean }>({ checks: EMPTY_INDEX, readOnly: true });
 
 const TONE: Record<Diagnostic["severity"], string> = {
   error: "text-signal-error",
