@@ -13,6 +13,7 @@ import * as m0800 from "./20261202_0800_fonts";
 import * as m1100 from "./20261202_1100_rate_limits";
 import * as m20261203_0100 from "./20261203_0100_font_upload_revision";
 import * as m0100b from "./20261203_0100_preset_library";
+import * as m1300 from "./20261203_1300_release";
 
 export const migrations: Record<string, Migration> = {
   "20261202_0001_foundation": m0001,
@@ -27,4 +28,5 @@ export const migrations: Record<string, Migration> = {
   "20261202_1100_rate_limits": m1100,
   "20261203_0100_font_upload_revision": m20261203_0100,
   "20261203_0100_preset_library": m0100b,
+  "20261203_1300_release": m1300,
 };

@@ -276,6 +276,35 @@ export interface BuildPresetOriginsTable {
   added_at: Timestamp;
 }
 
+/** One ticked item of a revision's bench check (the list itself is generated, app/lib/release/). */
+export interface BenchCheckTicksTable {
+  build_id: string;
+  revision: number;
+  item_key: string;
+  ticked_by: string | null;
+  ticked_at: Generated<Date>;
+}
+
+/** One immutable release of a build: the revision handed over and its bundle's checksum. */
+export interface ReleasesTable {
+  id: Generated<string>;
+  build_id: string;
+  workshop_id: string;
+  number: number;
+  revision: number;
+  /** The bundle's template, as BundleResult's `template.ref`. */
+  template_ref: string;
+  name_mode: "long" | "8.3";
+  /** numeric: pg answers a string. */
+  card_gb: ColumnType<string, number | string, never>;
+  bundle_sha256: string;
+  /** bigint: pg answers a string. */
+  bundle_bytes: ColumnType<string, number | string, never>;
+  note: Generated<string>;
+  released_by: string | null;
+  released_at: Generated<Date>;
+}
+
 export interface Database {
   workshops: WorkshopsTable;
   users: UsersTable;
@@ -299,6 +328,8 @@ export interface Database {
   library_presets: LibraryPresetsTable;
   library_versions: LibraryVersionsTable;
   build_preset_origins: BuildPresetOriginsTable;
+  bench_check_ticks: BenchCheckTicksTable;
+  releases: ReleasesTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
