@@ -6,6 +6,7 @@ import { can } from "~/lib/auth/permissions";
 import { ErrorPage } from "~/components/ErrorPage";
 import { describeError, errorTitle } from "~/lib/web/errors";
 import { outdatedPresetsFor } from "~/lib/library/service.server";
+import { openRequestCountsFor } from "~/lib/requests/service.server";
 import type { Route } from "./+types/builds.$buildId";
 
 export const meta: Route.MetaFunction = ({ data, error }) => [{ title: error ? errorTitle(error) : `${data?.build.name ?? "Build"} · Hiltbench` }];
@@ -20,6 +21,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     canViewReviews: can(v.role, "view:reviews"),
     // Presets a version behind the library (a badge on every section of the build).
     outdated: can(v.role, "view:library") ? (await outdatedPresetsFor(v, b)).length : 0,
+    // Client requests waiting for an answer (the workshop's tab; clients use their handoff page).
+    canViewRequests: can(v.role, "view:requests") && v.role !== "client",
+    openRequests: can(v.role, "view:requests") && v.role !== "client" ? ((await openRequestCountsFor(v, b.id)).get(b.id) ?? 0) : 0,
   };
 }
 
@@ -37,10 +41,11 @@ const SECTIONS = [
   ["revisions", "Revisions"],
   ["reviews", "Reviews"],
   ["bundle", "Bundle"],
+  ["requests", "Requests"],
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
-  const { build, canViewRevisions, canViewReviews, outdated } = loaderData;
+  const { build, canViewRevisions, canViewReviews, canViewRequests, openRequests, outdated } = loaderData;
   return (
     <div>
       <div className="flex flex-wrap items-baseline gap-3">
@@ -55,9 +60,14 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         ) : null}
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
-        {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews)).map(([to, label]) => (
+        {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews) && (to !== "requests" || canViewRequests)).map(([to, label]) => (
           <NavLink key={to} to={to} end={to === "."} className={tab}>
             {label}
+            {to === "requests" && openRequests > 0 ? (
+              <span className="ml-1.5 rounded-full bg-ember-600 px-1.5 text-xs text-white" data-testid="open-requests" aria-label={`${openRequests} waiting for an answer`}>
+                {openRequests}
+              </span>
+            ) : null}
           </NavLink>
         ))}
       </nav>

@@ -15,6 +15,7 @@ import * as m20261203_0100 from "./20261203_0100_font_upload_revision";
 import * as m0100b from "./20261203_0100_preset_library";
 import * as m1300 from "./20261203_1300_release";
 import * as m1310 from "./20261203_1310_preset_origin_history";
+import * as m1320 from "./20261203_1320_client_requests";
 
 export const migrations: Record<string, Migration> = {
   "20261202_0001_foundation": m0001,
@@ -31,4 +32,5 @@ export const migrations: Record<string, Migration> = {
   "20261203_0100_preset_library": m0100b,
   "20261203_1300_release": m1300,
   "20261203_1310_preset_origin_history": m1310,
+  "20261203_1320_client_requests": m1320,
 };

@@ -46,6 +46,9 @@ const ACTIONS: Action[] = [
   { route: "routes/api.presets.$presetId.rollout.ts", method: "POST", path: (i) => `/api/presets/${i.lib}/rollout`, json: { apply: false } },
   { route: "routes/api.builds.$buildId.presets.ts", method: "POST", path: (i) => `/api/builds/${i.build}/presets`, json: { libraryPresetId: "00000000-0000-0000-0000-000000000000", fontId: "ashfall", configVersion: 0 } },
   { route: "routes/api.builds.$buildId.preset-updates.ts", method: "POST", path: (i) => `/api/builds/${i.build}/preset-updates`, json: { presetId: "ashfall", configVersion: 0 } },
+  { route: "routes/builds.$buildId.requests.tsx", method: "POST", path: (i) => `/builds/${i.build}/requests`, form: { intent: "ask", kind: "font", message: "cross-site" } },
+  { route: "routes/api.builds.$buildId.requests.ts", method: "POST", path: (i) => `/api/builds/${i.build}/requests`, json: { kind: "font", message: "cross-site" } },
+  { route: "routes/api.builds.$buildId.requests.$requestId.ts", method: "PUT", path: (i) => `/api/builds/${i.build}/requests/00000000-0000-0000-0000-000000000000`, json: { status: "done", version: 1 } },
   { route: "routes/api.not-found.ts", method: "POST", path: () => "/api/no-such-route", json: {} },
 ];
 

@@ -132,6 +132,12 @@ const CASES: Case[] = [
   { route: "/api/presets/:presetId/versions/:v", method: "GET", path: (i) => `/api/presets/${i.lib}/versions/1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
   { route: "/api/builds/:buildId/presets", method: "GET", path: (i) => `/api/builds/${i.kestrel}/presets`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
   { route: "/api/builds/:buildId/presets", method: "POST", path: (i) => `/api/builds/${i.kestrel}/presets`, json: {}, expect: staff("bad", "403", "401") },
+  // Client requests: the workshop answers and reads on the Requests tab; the client asks through the API (their handoff page); reviewers read.
+  { route: "/builds/:buildId/requests", method: "GET", path: (i) => `/builds/${i.kestrel}/requests`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/requests", method: "POST", path: (i) => `/builds/${i.kestrel}/requests`, form: {}, expect: staff("bad", "403") },
+  { route: "/api/builds/:buildId/requests", method: "GET", path: (i) => `/api/builds/${i.kestrel}/requests`, expect: { ...all("ok"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/requests", method: "POST", path: (i) => `/api/builds/${i.kestrel}/requests`, json: {}, expect: { ...staff("bad", "403", "401"), client: "bad" } },
+  { route: "/api/builds/:buildId/requests/:requestId", method: "PUT", path: (i) => `/api/builds/${i.kestrel}/requests/00000000-0000-0000-0000-000000000000`, json: {}, expect: staff("bad", "403", "401") },
   { route: "/api/builds/:buildId/preset-updates", method: "GET", path: (i) => `/api/builds/${i.kestrel}/preset-updates`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
   { route: "/api/builds/:buildId/preset-updates", method: "POST", path: (i) => `/api/builds/${i.kestrel}/preset-updates`, json: {}, expect: staff("bad", "403", "401") },
   // The development mailbox is open to anyone while it is served (HB_DEV_MAILBOX=1 in the e2e run); production answers 404.

@@ -114,6 +114,7 @@ function build() {
         { name: "Bundle", description: "The SD card zip." },
         { name: "Pictures", description: "Look timelines and the wiring picture." },
         { name: "Library", description: "The workshop's preset library: versions, adding to builds, updates by merge, roll-out, preset files." },
+        { name: "Requests", description: "What clients ask for after handoff, and the workshop's answers." },
         { name: "Reference", description: "This document." },
       ],
       components: {

@@ -9,11 +9,15 @@ import { buildQuerySchema } from "../forms/build-forms";
 import { presetDocumentSchema } from "../library/exchange";
 import { addBody, applyBody, createBody, libraryListQuerySchema, publishBody, rolloutBody } from "../library/requests";
 import { renderBodyDoc } from "../rendering/request";
+import { answerBody, askBody } from "../requests/rules";
 import { revisionListQuerySchema } from "../revisions/params";
 import {
   buildAnswer,
   buildListAnswer,
   bundlePlanAnswer,
+  clientRequestAnsweredAnswer,
+  clientRequestAskedAnswer,
+  clientRequestListAnswer,
   configAnswer,
   configPutBody,
   configSavedAnswer,
@@ -49,7 +53,7 @@ export type Operation = {
   description: string;
   /** The permission the route asks for (app/lib/auth/permissions.ts); null for a public operation. */
   permission: Permission | null;
-  tag: "Account" | "Builds" | "Config" | "Rendering" | "Revisions" | "Fonts" | "Bundle" | "Pictures" | "Library" | "Reference";
+  tag: "Account" | "Builds" | "Config" | "Rendering" | "Revisions" | "Fonts" | "Bundle" | "Pictures" | "Library" | "Requests" | "Reference";
   pathParams?: z.ZodObject;
   query?: z.ZodObject;
   body?: { media: "application/json" | "multipart/form-data"; schema: z.ZodType; description?: string };
@@ -67,6 +71,8 @@ const NOT_YOURS = "No such build in your workshop (or, for a client, not their b
 const presetId = z.object({ presetId: z.string().meta({ description: "A library preset's id (GET /api/presets answers it).", example: "$ASHFALL" }) });
 const NO_PRESET = "No library preset with this id in your workshop.";
 const JSON_BODY = '-H "Content-Type: application/json"';
+
+const requestId = buildId.extend({ requestId: z.string().meta({ description: "A client request's id (GET /api/builds/{buildId}/requests answers it)." }) });
 
 export const OPERATIONS: Operation[] = [
   {
@@ -485,5 +491,55 @@ export const OPERATIONS: Operation[] = [
     answers: { 200: { description: "An HTML page.", media: "text/html" } },
     errors: {},
     curl: `curl "$HB/api/docs"`,
+  },
+  {
+    method: "get",
+    path: "/api/builds/{buildId}/requests",
+    tag: "Requests",
+    summary: "A build's client requests",
+    description: "What the build's client asked for after handoff (one more font, a colour change, a fault), newest first, with the workshop's status and reply. A client reads only their own build's.",
+    permission: "view:requests",
+    pathParams: buildId,
+    answers: { 200: { description: "The requests and how many wait for an answer.", json: clientRequestListAnswer } },
+    errors: { 404: NOT_YOURS },
+    curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/requests"`,
+  },
+  {
+    method: "post",
+    path: "/api/builds/{buildId}/requests",
+    tag: "Requests",
+    summary: "Send a client request",
+    description: "The build's client asks for something (or the workshop logs what a client asked by phone). The workshop's owners and builders get an e-mail. A build holds at most 20 requests waiting for an answer.",
+    permission: "ask:request",
+    pathParams: buildId,
+    body: { media: "application/json", schema: askBody },
+    answers: { 201: { description: "Sent.", json: clientRequestAskedAnswer } },
+    errors: {
+      400: "The body is not JSON, or a field is missing or wrong (field named in the message).",
+      404: NOT_YOURS,
+      405: "Not a GET or POST.",
+      413: "The body is larger than 16 KB.",
+    },
+    curl: `curl ${AUTH} ${JSON_BODY} \\\n  -d '{"kind": "font", "message": "One more font for the Kestrel, please: something stormy."}' \\\n  "$HB/api/builds/$KESTREL/requests"`,
+  },
+  {
+    method: "put",
+    path: "/api/builds/{buildId}/requests/{requestId}",
+    tag: "Requests",
+    summary: "Answer a client request",
+    description: "Take a request in hand, mark it done or decline it (declining needs a reply), with a reply the client reads; only from the version it was read at. The client gets an e-mail when a reply is written or the request is closed.",
+    permission: "answer:request",
+    pathParams: requestId,
+    body: { media: "application/json", schema: answerBody },
+    answers: { 200: { description: "Answered: the request's new version.", json: clientRequestAnsweredAnswer } },
+    errors: {
+      400: "The body is not JSON, or a field is missing or wrong (field named in the message).",
+      404: "No such build, or no such request on it.",
+      405: "Not a PUT.",
+      409: "Someone answered the request since it was read (currentVersion).",
+      413: "The body is larger than 16 KB.",
+      422: "A decline without a reply.",
+    },
+    curl: `curl ${AUTH} ${JSON_BODY} -X PUT \\\n  -d '{"status": "in-hand", "reply": "On the bench next week.", "version": 1}' \\\n  "$HB/api/builds/$KESTREL/requests/$(curl -s ${AUTH} "$HB/api/builds/$KESTREL/requests" | jq -r '.requests[0].id')"`,
   },
 ];

@@ -356,3 +356,23 @@ export const presetUpdatesAnswer = z.strictObject({
 });
 
 export const presetUpdatedAnswer = z.strictObject({ version: int().meta({ description: "The build's new config version." }), libraryVersion: int() });
+
+const clientRequestSchema = z
+  .strictObject({
+    id: z.string(),
+    kind: z.enum(["font", "colour", "fault", "other"]),
+    kindLabel: z.string().meta({ description: "The kind in words." }),
+    message: z.string().meta({ description: "What the client asked, as written." }),
+    status: z.enum(["open", "in-hand", "done", "declined"]),
+    statusLabel: z.string().meta({ description: "The status as the client reads it." }),
+    reply: z.string().meta({ description: "The workshop's reply (empty until one is written)." }),
+    askedBy: z.string().nullable().meta({ description: "Who sent it (the client, or a member logging it for them); null when that account is gone." }),
+    askedAt: z.string().meta({ description: "ISO 8601." }),
+    updatedAt: z.string().meta({ description: "ISO 8601." }),
+    version: int().meta({ description: "Send it back with an answer: an answer from an older version is refused (409)." }),
+  })
+  .meta({ id: "ClientRequest" });
+
+export const clientRequestListAnswer = z.strictObject({ requests: z.array(clientRequestSchema).meta({ description: "Newest first." }), open: int().meta({ description: "How many wait for an answer (open or in hand)." }) });
+export const clientRequestAskedAnswer = z.strictObject({ id: z.string().meta({ description: "The new request's id." }) });
+export const clientRequestAnsweredAnswer = z.strictObject({ version: int().meta({ description: "The request's new version." }) });

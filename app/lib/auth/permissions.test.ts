@@ -2,9 +2,15 @@ import { describe, expect, it } from "vitest";
 import { can, isRenderViewAction, mayGiveVerdict, PERMISSIONS, RENDER_VIEW_ACTIONS } from "./permissions";
 
 describe("role table", () => {
-  it("gives the owner everything and the client only viewing and the API", () => {
+  it("gives the owner everything and the client only viewing, the API and their own requests", () => {
     for (const p of PERMISSIONS) expect(can("owner", p)).toBe(true);
-    expect(PERMISSIONS.filter((p) => can("client", p))).toEqual(["view:builds", "use:api"]);
+    expect(PERMISSIONS.filter((p) => can("client", p))).toEqual(["view:builds", "use:api", "view:requests", "ask:request"]);
+  });
+  it("clients and the workshop ask; only owners and builders answer; reviewers read", () => {
+    const roles = ["owner", "builder", "reviewer", "client"] as const;
+    expect(roles.filter((r) => can(r, "ask:request"))).toEqual(["owner", "builder", "client"]);
+    expect(roles.filter((r) => can(r, "answer:request"))).toEqual(["owner", "builder"]);
+    expect(roles.filter((r) => can(r, "view:requests"))).toEqual(["owner", "builder", "reviewer", "client"]);
   });
   it("lets builders edit builds but not manage members; reviewers edit nothing", () => {
     expect(can("builder", "edit:build")).toBe(true);

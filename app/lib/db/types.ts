@@ -287,6 +287,25 @@ export interface PresetOriginEventsTable {
   recorded_at: Generated<Date>;
 }
 
+export type ClientRequestKind = "font" | "colour" | "fault" | "other";
+export type ClientRequestStatus = "open" | "in-hand" | "done" | "declined";
+
+/** What a client asks for after handoff, with the workshop's status and reply (app/lib/requests/). */
+export interface ClientRequestsTable {
+  id: Generated<string>;
+  build_id: string;
+  workshop_id: string;
+  kind: ClientRequestKind;
+  message: string;
+  status: Generated<ClientRequestStatus>;
+  reply: Generated<string>;
+  asked_by: string | null;
+  asked_at: Generated<Date>;
+  handled_by: string | null;
+  updated_at: Generated<Date>;
+  version: Generated<number>;
+}
+
 /** One ticked item of a revision's bench check (the list itself is generated, app/lib/release/). */
 export interface BenchCheckTicksTable {
   build_id: string;
@@ -341,6 +360,7 @@ export interface Database {
   build_preset_origins: BuildPresetOriginsTable;
   preset_origin_events: PresetOriginEventsTable;
   bench_check_ticks: BenchCheckTicksTable;
+  client_requests: ClientRequestsTable;
   releases: ReleasesTable;
 }
 

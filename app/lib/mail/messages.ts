@@ -14,6 +14,8 @@ export type MailContent = {
   quote?: string;
   /** The one link back into the app, absolute. */
   action: { label: string; url: string };
+  /** Why the reader gets this mail; a workshop member's reason when absent. */
+  footer?: string;
 };
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
@@ -30,6 +32,8 @@ function excerpt(s: string, max = 600): string {
 }
 
 const FOOTER = "You get this because you are a member of a Hiltbench workshop.";
+/** For a workshop's client: they are not a member. */
+export const CLIENT_FOOTER = "You get this because a Hiltbench workshop is building or looking after your saber.";
 
 export function composeMail(c: MailContent): MailMessage {
   const quote = c.quote !== undefined ? excerpt(c.quote) : undefined;
@@ -37,14 +41,14 @@ export function composeMail(c: MailContent): MailMessage {
     ...c.paragraphs,
     ...(quote !== undefined ? [quote.split("\n").map((l) => `> ${l}`).join("\n")] : []),
     `${c.action.label}: ${c.action.url}`,
-    `-- \n${FOOTER}`,
+    `-- \n${c.footer ?? FOOTER}`,
   ].join("\n\n");
   const html = [
     `<!doctype html><html><body style="font-family:system-ui,sans-serif;line-height:1.5;color:#1d1b19">`,
     ...c.paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`),
     ...(quote !== undefined ? [`<blockquote style="border-left:3px solid #c8642a;margin:0;padding-left:12px;white-space:pre-wrap">${escapeHtml(quote)}</blockquote>`] : []),
     `<p><a href="${escapeHtml(c.action.url)}">${escapeHtml(c.action.label)}</a></p>`,
-    `<p style="color:#6b645c;font-size:12px">${escapeHtml(FOOTER)}</p>`,
+    `<p style="color:#6b645c;font-size:12px">${escapeHtml(c.footer ?? FOOTER)}</p>`,
     `</body></html>`,
   ].join("\n");
   return { kind: c.kind, to: c.to, subject: c.subject, text, html };
@@ -85,5 +89,30 @@ export function verdictMail(a: Revision & { to: string; reviewerName: string; ve
     paragraphs: [`${a.reviewerName} ${said} revision ${a.revision} of "${a.buildName}".`],
     quote: a.note || undefined,
     action: { label: "Open the review", url: a.url },
+  });
+}
+
+/** To the workshop's owners and builders: a client asked for something. */
+export function clientRequestMail(a: { to: string; buildName: string; clientName: string; kindLabel: string; message: string; url: string }): MailMessage {
+  return composeMail({
+    kind: "client-request",
+    to: a.to,
+    subject: `${a.clientName} asks: ${a.kindLabel.toLowerCase()} (${a.buildName})`,
+    paragraphs: [`${a.clientName} sent a request about the build "${a.buildName}": ${a.kindLabel.toLowerCase()}.`],
+    quote: a.message,
+    action: { label: "Open the request", url: a.url },
+  });
+}
+
+/** To the client: the workshop answered their request. */
+export function clientRequestAnsweredMail(a: { to: string; buildName: string; kindLabel: string; statusLabel: string; reply: string; url: string }): MailMessage {
+  return composeMail({
+    kind: "client-request-answered",
+    to: a.to,
+    subject: `Your request about the ${a.buildName}: ${a.statusLabel.toLowerCase()}`,
+    paragraphs: [`The workshop answered your request (${a.kindLabel.toLowerCase()}) about the "${a.buildName}". Its status is now: ${a.statusLabel}.`],
+    ...(a.reply.trim() ? { quote: a.reply } : {}),
+    action: { label: "Read it in Hiltbench", url: a.url },
+    footer: CLIENT_FOOTER,
   });
 }
