@@ -24,6 +24,9 @@ export const PERMISSIONS = [
   "publish:library", // publish a version, create or import a library preset, delete an unused version
   "apply:library", // add a library preset to a build, apply an update to a build's preset
   "apply:library-all", // apply an update to every build that uses a preset (the owner)
+  "view:release", // a build's Release tab: the bench check, its ticks and the release history (read-only without the two below)
+  "check:bench", // tick or untick an item of a revision's bench check
+  "release:build", // release an approved, bench-checked revision to the client
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -47,8 +50,11 @@ const table: Record<Role, ReadonlySet<Permission>> = {
     "view:library",
     "publish:library",
     "apply:library",
+    "view:release",
+    "check:bench",
+    "release:build",
   ]),
-  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library", "view:release"]),
   client: new Set(["view:builds", "use:api"]),
 };
 
