@@ -85,9 +85,15 @@ test("approve, tick the bench check (by keyboard too), release, download the rec
     await expect(page.getByRole("button", { name: "Release" })).toHaveCount(0);
     await expect(page.getByTestId("bench-item").first().getByRole("button")).toHaveCount(0);
 
-    // The builder opens the Release tab: revision 1 is chosen, nothing is ticked, the button waits.
+    // The builder cannot mark the approved build released by hand on the overview.
     await switchTo(page, signIn, "demo-builder");
     await page.goto(`/builds/${id}`);
+    await page.getByLabel("Status").selectOption("released");
+    await page.getByRole("button", { name: "Save details" }).click();
+    await expect(page.locator(".field-error").filter({ hasText: "released from its Release tab, after the bench check" })).toBeVisible();
+    expect((await stored(sql, id)).status).toBe("approved");
+
+    // The builder opens the Release tab: revision 1 is chosen, nothing is ticked, the button waits.
     await page.getByRole("navigation", { name: "Build sections" }).getByRole("link", { name: "Release" }).click();
     await expect(page.getByLabel("Revision", { exact: true })).toHaveValue("1");
     const items = page.getByTestId("bench-item");
