@@ -129,7 +129,7 @@ export default function ReleasePage({ loaderData, actionData }: Route.ComponentP
               </p>
             ) : null}
             {p.may.release ? (
-              <Form method="post" className="space-y-3">
+              <Form method="post" className="space-y-3" key={p.releases.length}>
                 <input type="hidden" name="intent" value="release" />
                 <input type="hidden" name="revision" value={p.revision} />
                 <input type="hidden" name="template" value={q?.template ?? ""} />

@@ -160,12 +160,43 @@ test("approve, tick the bench check (by keyboard too), release, download the rec
     await expect(page.getByTestId("mail-text")).toContainText("First handoff: two presets.");
     await expect(page.getByTestId("mail-text")).toContainText(`/handoff/${id}`);
 
-    // Releases are listed for scripts too; a client still sees nothing there.
+    // The same bundle is not released twice: the button waits, and says why.
+    await page.goto(`/builds/${id}/release`);
+    await expect(page.getByTestId("release-blocked")).toContainText("already released with these choices, as release 1");
+    await expect(page.getByRole("button", { name: "Release", exact: true })).toBeDisabled();
+
+    // Releases are listed for scripts too.
     const list = await (await api.get(`/api/builds/${id}/releases`)).json();
     expect(list.releases).toHaveLength(1);
     expect(list.releases[0]).toMatchObject({ number: 1, revision: 1, sha256: recorded, bytes: bytes.length });
     await api.dispose();
   } finally {
+    await sql.query("DELETE FROM builds WHERE id = $1", [id]);
+  }
+});
+
+test("without JavaScript each tick is a plain form that posts and comes back; a refused release is an alert", async ({ browser, sql }) => {
+  const id = await newBuild(sql, `Wren no-js ${Date.now()}`);
+  const context = await browser.newContext({ javaScriptEnabled: false, baseURL: BASE_URL });
+  try {
+    await sql.query("INSERT INTO review_requests (build_id, workshop_id, revision, template_label, rendered, state) SELECT id, workshop_id, 1, 'e2e', 'x', 'approved' FROM builds WHERE id = $1", [id]);
+    await signInRequest(context.request, "demo-builder");
+    const page = await context.newPage();
+    await page.goto(`/builds/${id}/release`);
+    const progress = page.getByTestId("bench-progress");
+    const total = await page.getByTestId("bench-item").count();
+    await expect(progress).toHaveText(`0 of ${total} ticked`);
+    await page.getByTestId("bench-item").nth(2).getByRole("button").click();
+    await expect(progress).toHaveText(`1 of ${total} ticked`);
+    await expect(page.getByTestId("bench-item").nth(2)).toHaveAttribute("data-ticked", "1");
+    // The Release button waits; a release posted anyway is refused with the reason, and nothing is stored.
+    await expect(page.getByRole("button", { name: "Release", exact: true })).toBeDisabled();
+    const r = await context.request.post(`/builds/${id}/release`, { form: { intent: "release", revision: "1" }, headers: { Origin: BASE_URL } });
+    expect(r.status()).toBe(409);
+    expect(await r.text()).toContain(`${total - 1} of ${total} bench-check items are not ticked yet`);
+    expect((await sql.query("SELECT count(*)::int AS n FROM releases WHERE build_id = $1", [id])).rows[0].n).toBe(0);
+  } finally {
+    await context.close();
     await sql.query("DELETE FROM builds WHERE id = $1", [id]);
   }
 });

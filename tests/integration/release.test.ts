@@ -169,10 +169,18 @@ describe.runIf(hasDatabase)("bench check and release (PostgreSQL, disk storage)"
     expect(second.download).toContain("card=16");
   });
 
+  it("refuses releasing the same bundle twice (409), and changes nothing", async () => {
+    const b = await build();
+    const before = await state();
+    await failsWith(releaseBuildFor(people.builder, b, { revision: b.config_version, note: "", template: null, mode: "long", cardGb: 32 }, deps), 409, /already released, as release 1/);
+    expect(await state()).toEqual(before);
+  });
+
   it("refuses a second release that raced for the same number (409), keeping the first", async () => {
     const b = await build();
     const n = b.config_version;
-    const input = { revision: n, note: "", template: null, mode: "long" as const, cardGb: 32 };
+    // Another template makes another bundle (the card's size alone does not change the bytes).
+    const input = { revision: n, note: "", template: "readable-copy", mode: "long" as const, cardGb: 64 };
     let other: Promise<unknown> | undefined;
     const racing: ReleaseDeps = {
       ...deps,

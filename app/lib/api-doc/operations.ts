@@ -301,7 +301,7 @@ export const OPERATIONS: Operation[] = [
       403: "Only owners and builders release.",
       404: "No such build, or no such revision of it.",
       405: "Not a POST.",
-      409: "The revision is not approved, bench-check items are not ticked (how many, and the first few), the build is archived, or someone released it at the same moment.",
+      409: "The revision is not approved, bench-check items are not ticked (how many, and the first few), the build is archived, the same bundle is already released, or someone released it at the same moment.",
       413: "The body is larger than 64 KB.",
       422: "The card cannot be built (findings), or the revision does not render with the template.",
     },

@@ -128,7 +128,7 @@ export function benchChecklist(c: Config): BenchGroup[] {
       {
         key: "power:no-hot-spots",
         label: "No hot spots after a few minutes lit (cell, leads, solder joints, blade connector)",
-        hint: "Common practice, not a rating: the cell maker's data, local rules and a qualified person decide what is safe.",
+        hint: "A rule of thumb, not a rating: the cell maker's data, local rules and a qualified person decide what is safe.",
         commonPractice: true,
       },
     ],
@@ -138,7 +138,7 @@ export function benchChecklist(c: Config): BenchGroup[] {
     key: "card",
     kind: "card",
     title: "SD card",
-    items: [{ key: "card:matches", label: "The SD card matches the bundle: Check a card reports no differences" }],
+    items: [{ key: "card:matches", label: "The SD card matches the bundle: Check a card reports no differences", hint: "Check a card is on the Bundle tab; choose the same template, names and card size as below." }],
   });
   return groups;
 }

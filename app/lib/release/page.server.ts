@@ -60,9 +60,14 @@ export async function openReleasePage(v: Viewer, b: Build, params: URLSearchPara
   const bundle = await openBundlePage(v, b, q);
   const revisionApproved = approved.includes(revision);
   const errors = bundle.plan?.findings.filter((f) => f.severity === "error") ?? [];
+  const template = bundle.plan?.template.ref;
+  // The card's size changes the findings, not the bytes: the same revision, template and names make the same bundle.
+  const same = releases.find((r) => r.revision === revision && r.template === template && r.names === bundle.query.mode);
   const blocked = b.archived_at
     ? "This build is archived; restore it before releasing it."
-    : (releaseBlocker(revisionApproved, check)?.message ??
+    : same
+      ? `Revision ${revision} is already released with these choices, as release ${same.number}.`
+      : (releaseBlocker(revisionApproved, check)?.message ??
       (bundle.problem ? bundle.problem.message : errors.length ? `The card cannot be built: ${errors.map((e) => e.message).join(" ")}` : null));
   return { buildId: b.id, buildName: b.name, approved, revision, revisionApproved, check, bundle, blocked, may, releases };
 }

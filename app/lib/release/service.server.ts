@@ -149,6 +149,8 @@ export async function releaseBuildFor(v: Viewer, b: Build, input: ReleaseInput, 
   const errors = plan.findings.filter((f) => f.severity === "error");
   if (errors.length) fail(422, `The card cannot be built, so it cannot be released: ${errors.map((e) => e.message).join(" ")}`, { findings: plan.findings });
   const { sha256, bytes } = await digestStream(zipBundle(plan, storage()));
+  const same = (await repo.releasesOf(db(), v.workshop.id, b.id)).find((r) => r.bundle_sha256 === sha256);
+  if (same) fail(409, `This bundle is already released, as release ${same.number} (revision ${same.revision}); nothing was changed.`);
   try {
     const id = await db()
       .transaction()
