@@ -175,7 +175,7 @@ test("approve, tick the bench check (by keyboard too), release, download the rec
   }
 });
 
-test("without JavaScript each tick is a plain form that posts and comes back; a refused release is an alert", async ({ browser, sql }) => {
+test("without JavaScript each tick is a plain form that posts and comes back; a release posted too early is refused with its reason", async ({ browser, sql }) => {
   const id = await newBuild(sql, `Wren no-js ${Date.now()}`);
   const context = await browser.newContext({ javaScriptEnabled: false, baseURL: BASE_URL });
   try {

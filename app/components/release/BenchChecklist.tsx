@@ -2,7 +2,7 @@
 // tick it. Each saves at once through its own fetcher (the page does not reload); without
 // JavaScript each is a plain form that posts and comes back to the page.
 import { useFetcher } from "react-router";
-import type { BenchCheck, CheckedItem } from "~/lib/release/service.server";
+import type { BenchCheck, CheckedItem } from "~/lib/release/rules";
 
 function when(iso: string) {
   return `${iso.slice(0, 16).replace("T", " ")} UTC`;

@@ -20,20 +20,12 @@ import * as repo from "../repo/releases.server";
 import { revisionOf } from "../revisions/compare.server";
 import { storage } from "../storage/settings.server";
 import { fail } from "../web/http.server";
-import { benchChecklist, type BenchGroup, type BenchItem } from "./checklist";
+import { benchChecklist } from "./checklist";
+import { releaseBlocker, type BenchCheck } from "./rules";
 import { releasedMail } from "./mail";
 import type { ReleaseInput } from "./requests";
 
 type Build = Pick<BuildRow, "id" | "name" | "client_name" | "status" | "config" | "config_version" | "archived_at" | "config_saved_at" | "pinned_template_id" | "pinned_template_version">;
-
-export type Tick = { by: string | null; at: string };
-export type CheckedItem = BenchItem & { tick: Tick | null };
-export type BenchCheck = {
-  revision: number;
-  groups: (Omit<BenchGroup, "items"> & { items: CheckedItem[] })[];
-  ticked: number;
-  total: number;
-};
 
 export async function benchCheckFor(v: Viewer, b: Build, n: number): Promise<BenchCheck> {
   requirePermission(v, "view:release");
@@ -66,6 +58,9 @@ export async function digestStream(stream: Readable): Promise<{ sha256: string; 
   }
   return { sha256: h.digest("hex"), bytes };
 }
+
+export type { BenchCheck, CheckedItem, Tick } from "./rules";
+export { releaseBlocker };
 
 export type ReleaseDeps = {
   /** Put a message in the outbox inside the release's transaction. */
@@ -120,20 +115,6 @@ export async function releasesFor(v: Viewer, b: Pick<Build, "id">): Promise<Rele
 export function approvedRevisionsFor(v: Viewer, b: Pick<Build, "id">): Promise<number[]> {
   requirePermission(v, "view:release");
   return repo.approvedRevisions(db(), b.id);
-}
-
-/** Why revision `n` cannot be released yet (not approved, items unticked), or null. Bundle errors are checked apart. */
-export function releaseBlocker(approved: boolean, check: BenchCheck): { status: number; message: string } | null {
-  if (!approved) return { status: 409, message: `Revision ${check.revision} is not approved: ask for a review on the Reviews tab, and release it once a reviewer approves it.` };
-  const open = check.groups.flatMap((g) => g.items).filter((i) => !i.tick);
-  if (open.length) {
-    const first = open.slice(0, 3).map((i) => `"${i.label}"`).join(", ");
-    return {
-      status: 409,
-      message: `${open.length} of ${check.total} bench-check item${check.total === 1 ? "" : "s"} ${open.length === 1 ? "is" : "are"} not ticked yet (${first}${open.length > 3 ? ", …" : ""}); tick every item on the bench first.`,
-    };
-  }
-  return null;
 }
 
 const isUniqueViolation = (e: unknown) => (e as { code?: string })?.code === "23505";
