@@ -135,7 +135,8 @@ describe.runIf(hasDatabase)("bench check and release (PostgreSQL, disk storage)"
     const n = b.config_version;
     const r = await releaseBuildFor(people.builder, b, { revision: n, note: "First handoff", template: null, mode: "long", cardGb: 32 }, deps);
     expect(r).toMatchObject({ number: 1, revision: n, names: "long", card: 32, note: "First handoff", releasedBy: people.builder.user.displayName });
-    // The bundle API serves the same bytes for the release's own choices.
+    // The bundle API serves the same bytes for the release's own choices (the revision's own template: none asked for).
+    expect(r.download).toBe(`/api/builds/${buildId}/bundle?revision=${n}&names=long&card=32`);
     const res = await bundleLoader({ request: new Request(`http://127.0.0.1${r.download}`, { headers: { Authorization: `Bearer ${token}` } }), params: { buildId }, context: {} });
     expect(res.status).toBe(200);
     const zip = new Uint8Array(await res.arrayBuffer());
@@ -200,6 +201,7 @@ describe.runIf(hasDatabase)("bench check and release (PostgreSQL, disk storage)"
     };
     const first = await releaseBuildFor(people.builder, b, input, racing);
     expect(first.number).toBe(3);
+    expect(first.download).toContain("template=readable-copy");
     const e = await other;
     expect(statusOf(e), messageOf(e)).toBe(409);
     expect(messageOf(e)).toMatch(/at the same moment/);

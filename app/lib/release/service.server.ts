@@ -19,6 +19,7 @@ import type { MailMessage } from "../mail/messages";
 import * as repo from "../repo/releases.server";
 import { revisionOf } from "../revisions/compare.server";
 import { storage } from "../storage/settings.server";
+import { DEFAULT_BUILTIN } from "../template";
 import { fail } from "../web/http.server";
 import { benchChecklist } from "./checklist";
 import { releaseBlocker, type BenchCheck } from "./rules";
@@ -85,8 +86,16 @@ export type Release = {
   download: string;
 };
 
-export function downloadHref(buildId: string, r: { revision: number; template_ref: string; name_mode: string; card_gb: string | number }): string {
-  const q = new URLSearchParams({ revision: String(r.revision), template: r.template_ref, names: r.name_mode, card: String(Number(r.card_gb)) });
+/**
+ * The bundle's address with the release's choices. A release made with the revision's own
+ * template leaves `template` out, so the bundle route takes that template at its pinned version
+ * (asking for a workshop template by id would take its newest version).
+ */
+export function downloadHref(buildId: string, r: { revision: number; template_ref: string; name_mode: string; card_gb: string | number; own_template: string }): string {
+  const q = new URLSearchParams({ revision: String(r.revision) });
+  if (r.template_ref !== r.own_template) q.set("template", r.template_ref);
+  q.set("names", r.name_mode);
+  q.set("card", String(Number(r.card_gb)));
   return `/api/builds/${buildId}/bundle?${q}`;
 }
 
@@ -103,7 +112,8 @@ function releaseOf(buildId: string, r: repo.ReleaseRow): Release {
     note: r.note,
     releasedBy: r.released_by_name ?? null,
     releasedAt: r.released_at.toISOString(),
-    download: downloadHref(buildId, r),
+    // The template a revision renders with when none is asked for (bundleFor): the build's pin for today's config, else the revision's.
+    download: downloadHref(buildId, { ...r, own_template: (r.revision === r.config_version ? r.pinned_template_id : r.revision_template_id) ?? DEFAULT_BUILTIN }),
   };
 }
 

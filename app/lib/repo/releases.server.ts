@@ -43,8 +43,10 @@ export async function releasesOf(db: Db, workshopId: string, buildId: string) {
   return db
     .selectFrom("releases as r")
     .leftJoin("users as u", "u.id", "r.released_by")
+    .innerJoin("builds as b", "b.id", "r.build_id")
+    .innerJoin("config_revisions as cr", (j) => j.onRef("cr.build_id", "=", "r.build_id").onRef("cr.number", "=", "r.revision"))
     .selectAll("r")
-    .select("u.display_name as released_by_name")
+    .select(["u.display_name as released_by_name", "cr.template_id as revision_template_id", "b.pinned_template_id", "b.config_version"])
     .where("r.workshop_id", "=", workshopId)
     .where("r.build_id", "=", buildId)
     .orderBy("r.number", "desc")
