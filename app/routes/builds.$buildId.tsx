@@ -19,6 +19,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     canEdit: can(v.role, "edit:build"),
     canViewRevisions: can(v.role, "view:revisions"),
     canViewReviews: can(v.role, "view:reviews"),
+    canViewRelease: can(v.role, "view:release"),
     // Presets a version behind the library (a badge on every section of the build).
     outdated: can(v.role, "view:library") ? (await outdatedPresetsFor(v, b)).length : 0,
     // Client requests waiting for an answer (the workshop's tab; clients use their handoff page).
@@ -41,11 +42,12 @@ const SECTIONS = [
   ["revisions", "Revisions"],
   ["reviews", "Reviews"],
   ["bundle", "Bundle"],
+  ["release", "Release"],
   ["requests", "Requests"],
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
-  const { build, canViewRevisions, canViewReviews, canViewRequests, openRequests, outdated } = loaderData;
+  const { build, canViewRevisions, canViewReviews, canViewRelease, canViewRequests, openRequests, outdated } = loaderData;
   return (
     <div>
       <div className="flex flex-wrap items-baseline gap-3">
@@ -60,7 +62,7 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         ) : null}
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
-        {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews) && (to !== "requests" || canViewRequests)).map(([to, label]) => (
+        {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews) && (to !== "release" || canViewRelease) && (to !== "requests" || canViewRequests)).map(([to, label]) => (
           <NavLink key={to} to={to} end={to === "."} className={tab}>
             {label}
             {to === "requests" && openRequests > 0 ? (

@@ -46,6 +46,9 @@ const ACTIONS: Action[] = [
   { route: "routes/api.presets.$presetId.rollout.ts", method: "POST", path: (i) => `/api/presets/${i.lib}/rollout`, json: { apply: false } },
   { route: "routes/api.builds.$buildId.presets.ts", method: "POST", path: (i) => `/api/builds/${i.build}/presets`, json: { libraryPresetId: "00000000-0000-0000-0000-000000000000", fontId: "ashfall", configVersion: 0 } },
   { route: "routes/api.builds.$buildId.preset-updates.ts", method: "POST", path: (i) => `/api/builds/${i.build}/preset-updates`, json: { presetId: "ashfall", configVersion: 0 } },
+  { route: "routes/builds.$buildId.release.tsx", method: "POST", path: (i) => `/builds/${i.build}/release`, form: { intent: "tick", revision: "1", item: "card:matches", ticked: "1" } },
+  { route: "routes/api.builds.$buildId.releases.ts", method: "POST", path: (i) => `/api/builds/${i.build}/releases`, json: { revision: 1, note: "cross-site" } },
+  { route: "routes/api.builds.$buildId.revisions.$n.bench-check.ts", method: "PUT", path: (i) => `/api/builds/${i.build}/revisions/1/bench-check`, json: { item: "card:matches", ticked: true } },
   { route: "routes/builds.$buildId.requests.tsx", method: "POST", path: (i) => `/builds/${i.build}/requests`, form: { intent: "ask", kind: "font", message: "cross-site" } },
   { route: "routes/api.builds.$buildId.requests.ts", method: "POST", path: (i) => `/api/builds/${i.build}/requests`, json: { kind: "font", message: "cross-site" } },
   { route: "routes/api.builds.$buildId.requests.$requestId.ts", method: "PUT", path: (i) => `/api/builds/${i.build}/requests/00000000-0000-0000-0000-000000000000`, json: { status: "done", version: 1 } },
@@ -89,6 +92,8 @@ async function snapshot(sql: pg.Pool, ids: Ids) {
     invitations: await q("SELECT count(*)::int AS n FROM invitations"),
     tokens: await q("SELECT count(*)::int AS n FROM api_tokens WHERE revoked_at IS NULL"),
     reviews: await q("SELECT (SELECT count(*)::int FROM review_requests) AS requests, (SELECT count(*)::int FROM review_comments) AS comments"),
+    release: await q("SELECT (SELECT count(*)::int FROM bench_check_ticks) AS ticks, (SELECT count(*)::int FROM releases) AS releases"),
+    clientRequests: await q("SELECT count(*)::int AS n FROM client_requests"),
     library: await q("SELECT (SELECT count(*)::int FROM library_presets) AS presets, (SELECT count(*)::int FROM library_versions) AS versions, (SELECT count(*)::int FROM build_preset_origins) AS origins"),
   });
 }
@@ -285,6 +290,8 @@ test.describe("random input at every edge never answers 500", () => {
           await record("GET /api/presets/:id", true, await get(api, `/api/presets/${wtf8(t1)}`));
           await record("GET /api/presets/:id/versions/:v", true, await get(api, `/api/presets/${ids.lib}/versions/${wtf8(n)}`));
           await record("POST /api/presets", true, await rawJson("POST", "/api/presets", { changelog: t2, preset: { name: t1, tags: [t2], notes: t1, looks: { "main-blade": { pixels: v, layers: [] } } } }));
+          await record("PUT bench-check", true, await rawJson("PUT", `/api/builds/${ids.build}/revisions/${wtf8(n)}/bench-check`, { item: t1, ticked: v }));
+          await record("POST releases", true, await rawJson("POST", `/api/builds/${ids.build}/releases`, { revision: v, note: t1, template: t2 }));
           await record("POST /api/builds/:id/presets", true, await rawJson("POST", `/api/builds/${ids.build}/presets`, { libraryPresetId: ids.lib, version: v, fontId: t1, configVersion: n, name: t2 }));
 
           // ---- form actions and page parameters, signed in as the owner from our own origin

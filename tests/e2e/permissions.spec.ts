@@ -140,6 +140,15 @@ const CASES: Case[] = [
   { route: "/api/builds/:buildId/requests/:requestId", method: "PUT", path: (i) => `/api/builds/${i.kestrel}/requests/00000000-0000-0000-0000-000000000000`, json: {}, expect: staff("bad", "403", "401") },
   { route: "/api/builds/:buildId/preset-updates", method: "GET", path: (i) => `/api/builds/${i.kestrel}/preset-updates`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
   { route: "/api/builds/:buildId/preset-updates", method: "POST", path: (i) => `/api/builds/${i.kestrel}/preset-updates`, json: {}, expect: staff("bad", "403", "401") },
+  // The bench check and the release: owners and builders tick and release, reviewers read, clients see nothing there.
+  { route: "/builds/:buildId/release", method: "GET", path: (i) => `/builds/${i.kestrel}/release`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
+  { route: "/builds/:buildId/release", method: "GET", path: (i) => `/builds/${i.kestrel}/release?revision=x`, expect: { ...staff("bad", "403"), reviewer: "bad" } },
+  { route: "/builds/:buildId/release", method: "POST", path: (i) => `/builds/${i.kestrel}/release`, form: { intent: "tick" }, expect: staff("bad", "403") },
+  { route: "/builds/:buildId/release", method: "POST", path: (i) => `/builds/${i.kestrel}/release`, form: { intent: "release" }, expect: staff("bad", "403") },
+  { route: "/api/builds/:buildId/releases", method: "GET", path: (i) => `/api/builds/${i.kestrel}/releases`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/releases", method: "POST", path: (i) => `/api/builds/${i.kestrel}/releases`, json: {}, expect: staff("bad", "403", "401") },
+  { route: "/api/builds/:buildId/revisions/:n/bench-check", method: "GET", path: (i) => `/api/builds/${i.kestrel}/revisions/1/bench-check`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
+  { route: "/api/builds/:buildId/revisions/:n/bench-check", method: "PUT", path: (i) => `/api/builds/${i.kestrel}/revisions/1/bench-check`, json: {}, expect: staff("bad", "403", "401") },
   // The development mailbox is open to anyone while it is served (HB_DEV_MAILBOX=1 in the e2e run); production answers 404.
   { route: "/dev/mailbox", method: "GET", path: () => "/dev/mailbox", expect: all("ok") },
   { route: "/dev/mailbox/:messageId", method: "GET", path: () => "/dev/mailbox/00000000-0000-4000-8000-000000000000", expect: all("404") },

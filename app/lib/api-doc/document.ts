@@ -112,6 +112,7 @@ function build() {
         { name: "Revisions", description: "Saved revisions and their diffs." },
         { name: "Fonts", description: "Sound font uploads." },
         { name: "Bundle", description: "The SD card zip." },
+        { name: "Release", description: "The bench check of a revision and the releases of a build." },
         { name: "Pictures", description: "Look timelines and the wiring picture." },
         { name: "Library", description: "The workshop's preset library: versions, adding to builds, updates by merge, roll-out, preset files." },
         { name: "Requests", description: "What clients ask for after handoff, and the workshop's answers." },

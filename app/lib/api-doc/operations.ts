@@ -10,6 +10,8 @@ import { presetDocumentSchema } from "../library/exchange";
 import { addBody, applyBody, createBody, libraryListQuerySchema, publishBody, rolloutBody } from "../library/requests";
 import { renderBodyDoc } from "../rendering/request";
 import { answerBody, askBody } from "../requests/rules";
+import { benchCheckAnswer, releaseListAnswer, releaseSchema } from "../release/answers";
+import { releaseBody, tickBody } from "../release/requests";
 import { revisionListQuerySchema } from "../revisions/params";
 import {
   buildAnswer,
@@ -53,7 +55,7 @@ export type Operation = {
   description: string;
   /** The permission the route asks for (app/lib/auth/permissions.ts); null for a public operation. */
   permission: Permission | null;
-  tag: "Account" | "Builds" | "Config" | "Rendering" | "Revisions" | "Fonts" | "Bundle" | "Pictures" | "Library" | "Requests" | "Reference";
+  tag: "Account" | "Builds" | "Config" | "Rendering" | "Revisions" | "Fonts" | "Bundle" | "Release" | "Pictures" | "Library" | "Requests" | "Reference";
   pathParams?: z.ZodObject;
   query?: z.ZodObject;
   body?: { media: "application/json" | "multipart/form-data"; schema: z.ZodType; description?: string };
@@ -276,6 +278,73 @@ export const OPERATIONS: Operation[] = [
     answers: { 200: { description: "The zip (or, with check=1, its plan as JSON).", media: "application/zip", json: bundlePlanAnswer } },
     errors: { 400: "A query value that is not allowed (field names it).", 404: NOT_YOURS, 422: "The card cannot be built: a name clash, a file too large, or a card too small (findings)." },
     curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/bundle?check=1"\ncurl ${AUTH} -OJ "$HB/api/builds/$KESTREL/bundle?names=8.3&card=16"`,
+  },
+  {
+    method: "get",
+    path: "/api/builds/{buildId}/releases",
+    tag: "Release",
+    summary: "List a build's releases",
+    description: "Every release, newest first: its number, revision, template, names and card, the bundle's SHA-256 and size, who released it and when, the note, and the bundle's download address with the release's own choices.",
+    permission: "view:release",
+    pathParams: buildId,
+    answers: { 200: { description: "The releases.", json: releaseListAnswer } },
+    errors: { 403: "Clients see no releases here.", 404: NOT_YOURS },
+    curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/releases"`,
+  },
+  {
+    method: "post",
+    path: "/api/builds/{buildId}/releases",
+    tag: "Release",
+    summary: "Release an approved, bench-checked revision",
+    description:
+      "Releases the revision: it must be approved by a review, every item of its bench check ticked, and its bundle without errors. The bundle's SHA-256 and size are recorded (the zip is byte-identical for the same inputs, so GET the download address for the same bytes), the build becomes released, and the build's client (when they have an account with an e-mail) is sent a link to their handoff page. A refusal changes nothing; releases are never changed once made.",
+    permission: "release:build",
+    pathParams: buildId,
+    body: { media: "application/json", schema: releaseBody },
+    answers: { 201: { description: "Released.", json: releaseSchema } },
+    errors: {
+      400: "The body is not JSON, or a field is missing or wrong (field named in the message).",
+      403: "Only owners and builders release.",
+      404: "No such build, or no such revision of it.",
+      405: "Not a POST.",
+      409: "The revision is not approved, bench-check items are not ticked (how many, and the first few), the build is archived, the same bundle is already released, or someone released it at the same moment.",
+      413: "The body is larger than 64 KB.",
+      422: "The card cannot be built (findings), or the revision does not render with the template.",
+    },
+    curl: `curl ${AUTH} ${JSON_BODY} -d '{"revision": 1, "note": "First handoff"}' "$HB/api/builds/$KESTREL/releases"`,
+  },
+  {
+    method: "get",
+    path: "/api/builds/{buildId}/revisions/{n}/bench-check",
+    tag: "Release",
+    summary: "A revision's bench check",
+    description: "The checklist generated from the revision (per preset, per channel, the buttons, power, the card), each item with its stable key and its tick (who, when), and whether the revision is approved.",
+    permission: "view:release",
+    pathParams: buildId.extend({ n: z.string().meta({ description: "The revision number, from 1.", example: "1" }) }),
+    answers: { 200: { description: "The bench check.", json: benchCheckAnswer } },
+    errors: { 400: "n is not a revision number.", 403: "Clients see no bench check.", 404: "No such build or revision." },
+    curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/revisions/1/bench-check"`,
+  },
+  {
+    method: "put",
+    path: "/api/builds/{buildId}/revisions/{n}/bench-check",
+    tag: "Release",
+    summary: "Tick or untick a bench-check item",
+    description: "Ticks (or unticks) one item of the revision's bench check, recording who and when; answers the whole check as it now stands.",
+    permission: "check:bench",
+    pathParams: buildId.extend({ n: z.string().meta({ description: "The revision number, from 1.", example: "1" }) }),
+    body: { media: "application/json", schema: tickBody },
+    answers: { 200: { description: "The bench check after the change.", json: benchCheckAnswer } },
+    errors: {
+      400: "n is not a revision number, or the body is not { item, ticked }.",
+      403: "Only owners and builders tick.",
+      404: "No such build or revision.",
+      405: "Not a PUT.",
+      409: "The build is archived.",
+      413: "The body is larger than 16 KB.",
+      422: "The revision's bench check has no such item.",
+    },
+    curl: `curl ${AUTH} ${JSON_BODY} -X PUT -d '{"item": "card:matches", "ticked": true}' "$HB/api/builds/$KESTREL/revisions/1/bench-check"`,
   },
   {
     method: "get",

@@ -44,4 +44,9 @@ describe("reviews", () => {
     expect(mayGiveVerdict("builder", "x", { authorId: "b", requestedBy: "b" })).toBe(false);
     expect(mayGiveVerdict("client", "x", { authorId: null, requestedBy: null })).toBe(false);
   });
+  it("lets owners and builders tick the bench check and release; reviewers only look; clients get nothing there", () => {
+    const roles = ["owner", "builder", "reviewer", "client"] as const;
+    for (const p of ["check:bench", "release:build"] as const) expect(roles.filter((r) => can(r, p))).toEqual(["owner", "builder"]);
+    expect(roles.filter((r) => can(r, "view:release"))).toEqual(["owner", "builder", "reviewer"]);
+  });
 });

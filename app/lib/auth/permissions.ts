@@ -24,6 +24,9 @@ export const PERMISSIONS = [
   "publish:library", // publish a version, create or import a library preset, delete an unused version
   "apply:library", // add a library preset to a build, apply an update to a build's preset
   "apply:library-all", // apply an update to every build that uses a preset (the owner)
+  "view:release", // a build's Release tab: the bench check, its ticks and the release history (read-only without the two below)
+  "check:bench", // tick or untick an item of a revision's bench check
+  "release:build", // release an approved, bench-checked revision to the client
   "view:requests", // a build's client requests (a client: their own build's)
   "ask:request", // send a request about a build (its client, or the workshop logging one for them)
   "answer:request", // take a client request in hand, close or decline it, reply
@@ -50,11 +53,14 @@ const table: Record<Role, ReadonlySet<Permission>> = {
     "view:library",
     "publish:library",
     "apply:library",
+    "view:release",
+    "check:bench",
+    "release:build",
     "view:requests",
     "ask:request",
     "answer:request",
   ]),
-  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library", "view:requests"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library", "view:release", "view:requests"]),
   client: new Set(["view:builds", "use:api", "view:requests", "ask:request"]),
 };
 

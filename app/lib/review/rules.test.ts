@@ -14,8 +14,9 @@ describe("review rules", () => {
   it("in review and approved are never set by hand; released only after approval", () => {
     expect(manualStatusError("configuring", "approved")).toMatch(/reviewers/);
     expect(manualStatusError("configuring", "in-review")).toMatch(/Reviews tab/);
-    expect(manualStatusError("configuring", "released")).toMatch(/approved/);
-    expect(manualStatusError("approved", "released")).toBeNull();
+    expect(manualStatusError("configuring", "released")).toMatch(/Release tab, after the bench check/);
+    expect(manualStatusError("approved", "released")).toMatch(/Release tab, after the bench check/);
+    expect(manualStatusError("released", "released")).toBeNull();
     expect(manualStatusError("approved", "approved")).toBeNull();
     expect(manualStatusError("in-review", "configuring")).toBeNull();
   });
