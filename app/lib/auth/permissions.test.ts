@@ -2,9 +2,15 @@ import { describe, expect, it } from "vitest";
 import { can, isRenderViewAction, mayGiveVerdict, PERMISSIONS, RENDER_VIEW_ACTIONS } from "./permissions";
 
 describe("role table", () => {
-  it("gives the owner everything and the client only viewing and the API", () => {
+  it("gives the owner everything and the client only viewing, the API and their handoff", () => {
     for (const p of PERMISSIONS) expect(can("owner", p)).toBe(true);
-    expect(PERMISSIONS.filter((p) => can("client", p))).toEqual(["view:builds", "use:api"]);
+    expect(PERMISSIONS.filter((p) => can("client", p))).toEqual(["view:builds", "use:api", "view:handoff"]);
+  });
+  it("sends clients to their handoff: no build list, no bundles of their own choosing; everyone may open a handoff sheet", () => {
+    const roles = ["owner", "builder", "reviewer", "client"] as const;
+    expect(roles.filter((r) => can(r, "view:build-list"))).toEqual(["owner", "builder", "reviewer"]);
+    expect(roles.filter((r) => can(r, "make:bundle"))).toEqual(["owner", "builder", "reviewer"]);
+    expect(roles.filter((r) => can(r, "view:handoff"))).toEqual([...roles]);
   });
   it("lets builders edit builds but not manage members; reviewers edit nothing", () => {
     expect(can("builder", "edit:build")).toBe(true);

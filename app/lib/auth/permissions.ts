@@ -24,6 +24,9 @@ export const PERMISSIONS = [
   "publish:library", // publish a version, create or import a library preset, delete an unused version
   "apply:library", // add a library preset to a build, apply an update to a build's preset
   "apply:library-all", // apply an update to every build that uses a preset (the owner)
+  "view:build-list", // the workshop's table of builds (clients land on their handoff list instead)
+  "make:bundle", // a card bundle of today's config or any revision, and Check a card (clients get only the released one)
+  "view:handoff", // a build's handoff sheet and its released card zip (clients: their own; members: a read-only preview)
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -47,9 +50,12 @@ const table: Record<Role, ReadonlySet<Permission>> = {
     "view:library",
     "publish:library",
     "apply:library",
+    "view:build-list",
+    "make:bundle",
+    "view:handoff",
   ]),
-  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library"]),
-  client: new Set(["view:builds", "use:api"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library", "view:build-list", "make:bundle", "view:handoff"]),
+  client: new Set(["view:builds", "use:api", "view:handoff"]),
 };
 
 export function can(role: Role, permission: Permission): boolean {
