@@ -2,7 +2,8 @@
 // code (the client form on /login posts here too); posting a code signs the client in.
 import { data, Form, redirect, useActionData, useSearchParams } from "react-router";
 import { getSessionUserId } from "~/lib/auth/auth.server";
-import { CODE_DIGITS, pendingAddress, requestSignInCode, SIGN_IN_MESSAGES, verifySignInCode } from "~/lib/auth/email-sign-in.server";
+import { pendingAddress, requestSignInCode, verifySignInCode } from "~/lib/auth/email-sign-in.server";
+import { CODE_DIGITS, SIGN_IN_MESSAGES } from "~/lib/auth/sign-in-words";
 import { readFormLimited } from "~/lib/web/body.server";
 import type { Route } from "./+types/login.code";
 

@@ -15,29 +15,14 @@ import { codeBy, countWrongCode, recordCode, useCode } from "../repo/sign-in.ser
 import { isClientAddress, signInEmailUser } from "../repo/users.server";
 import { failureOf } from "../web/http.server";
 import { startSession } from "./session.server";
+import { CODE_DIGITS, CODE_MINUTES, MAX_WRONG_CODES, SIGN_IN_MESSAGES } from "./sign-in-words";
 
-export const CODE_MINUTES = 10;
-export const MAX_WRONG_CODES = 5;
-export const CODE_DIGITS = 6;
+export { CODE_DIGITS, CODE_MINUTES, MAX_WRONG_CODES, SIGN_IN_MESSAGES };
 export const LINK_PATH = "/login/link";
 const CODE_PAGE = "/login/code";
 const SUCCESS = "/handoff";
 const FAILURE = "/login/code?failed=1";
 const COOKIE = "_totp";
-
-export const SIGN_IN_MESSAGES = {
-  sent: "If this address belongs to a Hiltbench client, a code is on its way. It works for 10 minutes.",
-  badEmail: "Type an e-mail address such as name@example.com.",
-  badCode: `The code is the ${CODE_DIGITS} digits from the e-mail.`,
-  noCode: "There is no code waiting in this browser: ask for a code first, in the same browser.",
-  wrong: (left: number) => `That code is not right. Check the e-mail and try again (${left} ${left === 1 ? "try" : "tries"} left).`,
-  tooMany: "Too many wrong codes: this code no longer works. Ask for a new one.",
-  expired: `This code has expired (codes last ${CODE_MINUTES} minutes). Ask for a new one.`,
-  used: "This code or link was already used to sign in. Ask for a new code if you need to sign in again.",
-  badLink: "This sign-in link is not one Hiltbench sent, or it was cut short. Ask for a new code.",
-  otherBrowser: "Open the link in the browser where you asked for the code, or type the code there.",
-  olderLink: "This link belongs to an older code: use the newest e-mail, or ask for a new code.",
-} as const;
 
 export type SignInOutcome = { ok: true; headers: Headers; to: string } | { ok: false; status: number; message: string; headers: Headers };
 
