@@ -39,12 +39,12 @@ export default function HandoffLayout({ loaderData }: Route.ComponentProps) {
           </Form>
         </nav>
       </header>
-      {preview ? (
-        <p className="mx-auto mt-3 max-w-5xl px-4 text-sm text-brass-300" data-testid="handoff-preview">
-          Preview: this is what the client sees (read-only).
-        </p>
-      ) : null}
       <main className="mx-auto max-w-5xl px-4 py-6">
+        {preview ? (
+          <p className="mb-4 text-sm text-brass-300" data-testid="handoff-preview">
+            Preview: this is what the client sees (read-only).
+          </p>
+        ) : null}
         <Outlet />
       </main>
     </div>

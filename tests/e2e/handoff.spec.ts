@@ -188,3 +188,16 @@ test("a wrong code, a malformed address and a link from nowhere are refused with
   expect((await page.goto("/login/link?t=made-up"))?.status()).toBe(400);
   await expect(page.getByRole("alert")).toHaveText("This sign-in link is not one Hiltbench sent, or it was cut short. Ask for a new code.");
 });
+
+test("a workshop member previews what the client sees, read-only", async ({ page, signIn, sql }) => {
+  await signIn("demo-builder");
+  const kestrel = (await sql.query("SELECT id FROM builds WHERE name = 'Kestrel' ORDER BY created_at LIMIT 1")).rows[0].id as string;
+  await page.goto(`/builds/${kestrel}`);
+  await page.getByRole("link", { name: "Preview the client's handoff" }).click();
+  await expect(page).toHaveURL(new RegExp(`/handoff/${kestrel}$`));
+  await expect(page.getByTestId("handoff-preview")).toHaveText("Preview: this is what the client sees (read-only).");
+  await expect(page.getByRole("heading", { name: "Kestrel", level: 1 })).toBeVisible();
+  await expect(page.getByRole("button", { name: /save|edit|delete/i })).toHaveCount(0);
+  await page.getByRole("link", { name: "Back to the workshop" }).click();
+  await expect(page).toHaveURL(/\/builds$/);
+});
