@@ -3,7 +3,8 @@
 import { data, Form, redirect, useActionData, useSearchParams } from "react-router";
 import { getSessionUserId } from "~/lib/auth/auth.server";
 import { pendingAddress, requestSignInCode, verifySignInCode } from "~/lib/auth/email-sign-in.server";
-import { CODE_DIGITS, SIGN_IN_MESSAGES } from "~/lib/auth/sign-in-words";
+import { clientLanding, CODE_DIGITS, SIGN_IN_MESSAGES } from "~/lib/auth/sign-in-words";
+import { nextCookie } from "./auth.github";
 import { readFormLimited } from "~/lib/web/body.server";
 import type { Route } from "./+types/login.code";
 
@@ -19,6 +20,16 @@ export async function action({ request }: Route.ActionArgs) {
   const intent = form.get("intent");
   if (intent !== "send" && intent !== "verify") return data({ intent: "verify" as const, error: "Say whether to send a code or check one." }, { status: 400 });
   const outcome = intent === "send" ? await requestSignInCode(request, form) : await verifySignInCode(request, form);
+  if (outcome.ok && intent === "send") {
+    // A handoff sheet the client was sent to (a release e-mail's link) is where the sign-in ends.
+    const next = clientLanding(form.get("next"));
+    if (next !== "/handoff") outcome.headers.append("Set-Cookie", await nextCookie.serialize(next));
+  }
+  if (outcome.ok && intent === "verify") {
+    const next = clientLanding(await nextCookie.parse(request.headers.get("Cookie")));
+    outcome.headers.append("Set-Cookie", await nextCookie.serialize("", { maxAge: 0 }));
+    throw redirect(next, { headers: outcome.headers });
+  }
   if (outcome.ok) throw redirect(outcome.to, { headers: outcome.headers });
   return data({ intent, error: outcome.message }, { status: outcome.status, headers: outcome.headers });
 }

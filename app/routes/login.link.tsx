@@ -1,13 +1,19 @@
 // The one-time link from the sign-in e-mail (decision 023): signs the client in, or says why not.
 import { data, Link, redirect } from "react-router";
 import { verifySignInLink } from "~/lib/auth/email-sign-in.server";
+import { clientLanding } from "~/lib/auth/sign-in-words";
+import { nextCookie } from "./auth.github";
 import type { Route } from "./+types/login.link";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Hiltbench" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const outcome = await verifySignInLink(request);
-  if (outcome.ok) throw redirect(outcome.to, { headers: outcome.headers });
+  if (outcome.ok) {
+    const next = clientLanding(await nextCookie.parse(request.headers.get("Cookie")));
+    outcome.headers.append("Set-Cookie", await nextCookie.serialize("", { maxAge: 0 }));
+    throw redirect(next, { headers: outcome.headers });
+  }
   return data({ error: outcome.message }, { status: outcome.status, headers: outcome.headers });
 }
 

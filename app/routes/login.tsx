@@ -34,6 +34,7 @@ export default function Login() {
         <p className="mt-1 text-sm text-iron-300">We e-mail you a code and a one-time link; no password, no GitHub account needed.</p>
         <Form method="post" action="/login/code" className="mt-4 space-y-3">
           <input type="hidden" name="intent" value="send" />
+          {next.startsWith("/handoff/") ? <input type="hidden" name="next" value={next} /> : null}
           <label className="block">
             <span className="text-sm">Your e-mail address</span>
             <input type="email" name="email" required autoComplete="email" className="field mt-1" />

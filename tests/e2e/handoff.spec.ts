@@ -40,9 +40,10 @@ async function signInMail(sql: pg.Pool, to: string, since: Date): Promise<string
 }
 
 /** On /login: ask for a code as a client, and read the code and link from the mailbox page. */
-async function askForCode(page: Page, sql: pg.Pool, email = CLIENT): Promise<{ code: string; link: string }> {
+async function askForCode(page: Page, sql: pg.Pool, email = CLIENT, start = "/login"): Promise<{ code: string; link: string }> {
   const since = new Date(Date.now() - 2000);
-  await page.goto("/login");
+  await page.goto(start);
+  await expect(page).toHaveURL(/\/login(\?|$)/);
   const clients = page.getByRole("region", { name: "Clients: sign in with your e-mail" });
   await clients.getByLabel("Your e-mail address").fill(email);
   await clients.getByRole("button", { name: "E-mail me a code" }).click();
@@ -154,12 +155,14 @@ test("a client signs in with an e-mailed code, follows their build to its releas
   }
 });
 
-test("the one-time link signs the client in, once", async ({ page, sql, pageErrors }) => {
+test("the one-time link signs the client in, once, on the sheet they were sent to", async ({ page, sql, pageErrors }) => {
   void pageErrors;
-  const { link } = await askForCode(page, sql);
+  // A release e-mail's link to the sheet, opened signed out: sign-in first, then the sheet.
+  const kestrel = (await sql.query("SELECT id FROM builds WHERE name = 'Kestrel' ORDER BY created_at LIMIT 1")).rows[0].id as string;
+  const { link } = await askForCode(page, sql, CLIENT, `/handoff/${kestrel}`);
   await page.goto(link);
-  await expect(page).toHaveURL(/\/handoff$/);
-  await expect(page.getByRole("heading", { name: "Your builds" })).toBeVisible();
+  await expect(page).toHaveURL(new RegExp(`/handoff/${kestrel}$`));
+  await expect(page.getByRole("heading", { name: "Kestrel", level: 1 })).toBeVisible();
   // Opened again: used, said so, with a 4xx.
   const again = await page.goto(link);
   expect(again?.status()).toBe(410);

@@ -16,3 +16,8 @@ export const SIGN_IN_MESSAGES = {
   otherBrowser: "Open the link in the browser where you asked for the code, or type the code there.",
   olderLink: "This link belongs to an older code: use the newest e-mail, or ask for a new code.",
 } as const;
+
+/** Where a client goes after signing in: the handoff sheet they were sent to (a release e-mail's link), else their list. */
+export function clientLanding(next: unknown): string {
+  return typeof next === "string" && /^\/handoff\/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(next) ? next : "/handoff";
+}
