@@ -63,8 +63,11 @@ export async function seedLibrary(db: Kysely<Database>, workshopId: string, auth
   for (const [build, preset, library] of origins) {
     const libId = made.get(library);
     if (!libId) continue;
-    const b = await db.selectFrom("builds").select("id").where("workshop_id", "=", workshopId).where("name", "=", build).executeTakeFirst();
+    const b = await db.selectFrom("builds").select(["id", "config_version"]).where("workshop_id", "=", workshopId).where("name", "=", build).executeTakeFirst();
     if (!b) continue;
-    await db.insertInto("build_preset_origins").values({ build_id: b.id, preset_id: preset, workshop_id: workshopId, library_preset_id: libId, library_version: 1 }).onConflict((oc) => oc.doNothing()).execute();
+    const set = await db.insertInto("build_preset_origins").values({ build_id: b.id, preset_id: preset, workshop_id: workshopId, library_preset_id: libId, library_version: 1 }).onConflict((oc) => oc.doNothing()).executeTakeFirst();
+    // The origin's history too, from the build's first revision (restoring it keeps the origin).
+    if (Number(set.numInsertedOrUpdatedRows ?? 0) > 0)
+      await db.insertInto("preset_origin_events").values({ build_id: b.id, preset_id: preset, revision: 1, library_preset_id: libId, library_version: 1 }).execute();
   }
 }

@@ -14,6 +14,7 @@ import * as m1100 from "./20261202_1100_rate_limits";
 import * as m20261203_0100 from "./20261203_0100_font_upload_revision";
 import * as m0100b from "./20261203_0100_preset_library";
 import * as m1300 from "./20261203_1300_release";
+import * as m1310 from "./20261203_1310_preset_origin_history";
 import * as m1400 from "./20261203_1400_sign_in_codes";
 
 export const migrations: Record<string, Migration> = {
@@ -30,5 +31,6 @@ export const migrations: Record<string, Migration> = {
   "20261203_0100_font_upload_revision": m20261203_0100,
   "20261203_0100_preset_library": m0100b,
   "20261203_1300_release": m1300,
+  "20261203_1310_preset_origin_history": m1310,
   "20261203_1400_sign_in_codes": m1400,
 };

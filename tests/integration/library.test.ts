@@ -13,7 +13,8 @@ import { bodyFromBuildPreset } from "~/lib/library/adapt";
 import { addFromLibrary, applyUpdate, publish, rollOut, saveFromBuild, updatesFor, type Actor } from "~/lib/library/service.server";
 import { exportPreset, importPreset } from "~/lib/library/exchange.server";
 import { PRESET_FORMAT } from "~/lib/library/exchange";
-import { deleteLibraryVersion, listLibrary } from "~/lib/repo/library.server";
+import { deleteLibraryVersion, listLibrary, originsOf } from "~/lib/repo/library.server";
+import { restoreRevision } from "~/lib/repo/revisions.server";
 import { seed } from "../../db/seed";
 import { freshDb, hasDatabase } from "./db";
 
@@ -144,6 +145,35 @@ describe.runIf(hasDatabase)("preset library (PostgreSQL)", () => {
     expect(p.looks.blade.layers[2]).toMatchObject({ opacity: 0.4 });
     expect(p.looks.chamber.layers[0]).toMatchObject({ periodMs: 3000 });
     expect((await updatesFor(db, a, { id: buildId, config: after })).updates).toEqual([]);
+  });
+
+  it("restoring a revision puts back the library origins that revision had, so an update merges from the right version", async () => {
+    const r = await publish(db, a, { presetId: null, baseVersion: null, body: body("Restore glow"), changelog: "One" });
+    const lib = (r.body as { presetId: string }).presetId;
+    await publish(db, a, { presetId: lib, baseVersion: 1, body: { ...body("Restore glow"), notes: "two" }, changelog: "Two" });
+    const { id: buildId } = await createBuild(db, a.workshopId, meta("Kite"), demoConfig(), { authorId: null, counts: Z });
+    const added = await addFromLibrary(db, a, { buildId, libraryPresetId: lib, version: 1, fontId: "glasswind", configVersion: 1 });
+    expect(added.status).toBe(201);
+    const presetId = (added.body as { presetId: string }).presetId;
+    expect((await applyUpdate(db, a, { buildId, presetId, configVersion: 2, choices: {} })).status).toBe(200); // revision 3, from v2
+    const origin = async () => (await originsOf(db, a.workshopId, buildId)).map((o) => [o.presetId, o.version]);
+    expect(await origin()).toEqual([[presetId, 2]]);
+    const restore = async (n: number, expected: number) => expect(await restoreRevision(db, a.workshopId, buildId, n, expected, a.userId!)).toMatchObject({ kind: "restored", number: expected + 1 });
+    await restore(2, 3); // revision 4 = revision 2: the preset as added from v1
+    expect(await origin()).toEqual([[presetId, 1]]);
+    const config4 = (await db.selectFrom("builds").select("config").where("id", "=", buildId).executeTakeFirstOrThrow()).config;
+    expect((await updatesFor(db, a, { id: buildId, config: config4 })).updates.map((u) => [u.from, u.to, u.conflicts.length])).toEqual([[1, 2, 0]]);
+    await restore(1, 4); // revision 5 = revision 1: no such preset, no origin
+    expect(await origin()).toEqual([]);
+    await restore(3, 5); // revision 6 = revision 3: from v2 again
+    expect(await origin()).toEqual([[presetId, 2]]);
+    await restore(5, 6); // revision 7 = revision 5: the cleared origin is remembered too
+    expect(await origin()).toEqual([]);
+    await restore(4, 7);
+    expect(await origin()).toEqual([[presetId, 1]]);
+    // A stale restore changes neither the config nor the origins.
+    expect(await restoreRevision(db, a.workshopId, buildId, 3, 2, a.userId!)).toEqual({ kind: "stale" });
+    expect(await origin()).toEqual([[presetId, 1]]);
   });
 
   it("roll-out: a dry run changes nothing; applying saves only the clean builds and never a released one", async () => {

@@ -276,6 +276,17 @@ export interface BuildPresetOriginsTable {
   added_at: Timestamp;
 }
 
+/** A preset's library origin set (or cleared: both null) from a revision on; see build_preset_origins for today's. */
+export interface PresetOriginEventsTable {
+  id: Generated<string>;
+  build_id: string;
+  preset_id: string;
+  revision: number;
+  library_preset_id: string | null;
+  library_version: number | null;
+  recorded_at: Generated<Date>;
+}
+
 /** One ticked item of a revision's bench check (the list itself is generated, app/lib/release/). */
 export interface BenchCheckTicksTable {
   build_id: string;
@@ -342,6 +353,7 @@ export interface Database {
   library_presets: LibraryPresetsTable;
   library_versions: LibraryVersionsTable;
   build_preset_origins: BuildPresetOriginsTable;
+  preset_origin_events: PresetOriginEventsTable;
   bench_check_ticks: BenchCheckTicksTable;
   releases: ReleasesTable;
   sign_in_codes: SignInCodesTable;

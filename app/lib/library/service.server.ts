@@ -80,7 +80,7 @@ export async function saveFromBuild(db: Db, a: Actor, req: SaveFromBuild): Promi
   if (!made) return refuse(404, "The build has no preset with this id.");
   const out = await publish(db, a, { presetId: req.libraryPresetId, baseVersion: req.baseVersion, body: made.body, changelog: req.changelog });
   if (refused(out)) return out;
-  await repo.setOrigin(db, a.workshopId, build.id, req.presetId, out.body.presetId, out.body.version);
+  await repo.setOrigin(db, a.workshopId, build.id, req.presetId, out.body.presetId, out.body.version, build.config_version);
   return { status: out.status, body: { ...out.body, notes: made.notes } };
 }
 
@@ -104,7 +104,7 @@ export async function addFromLibrary(db: Db, a: Actor, req: AddRequest): Promise
     const r = await storeCheckedConfigIn(trx, a.workshopId, build.id, config, req.configVersion, { author: a.userId, message: `Added ${preset.name} v${version} from the library`, known: () => validate(build.config) });
     if (r.kind === "invalid") return refuse(422, `With this preset the config would have errors; nothing was added.`, { diagnostics: r.errors });
     if (r.kind === "stale") return refuse(409, r.message, { currentVersion: r.currentVersion });
-    await repo.setOrigin(trx, a.workshopId, build.id, presetId, preset.id, version);
+    await repo.setOrigin(trx, a.workshopId, build.id, presetId, preset.id, version, r.version);
     return { status: 201, body: { presetId, version: r.version, libraryVersion: version, notes } };
   });
 }
@@ -157,7 +157,7 @@ export async function applyUpdate(db: Db, a: Actor, req: ApplyRequest): Promise<
     const r = await storeCheckedConfigIn(trx, a.workshopId, build.id, applyPlan(build.config, plan), req.configVersion, { author: a.userId, message: `Updated ${plan.merged.name} to ${o.libraryName} v${o.latest} from the library`, known: () => validate(build.config) });
     if (r.kind === "invalid") return refuse(422, "The merged preset would give the config errors; nothing was applied.", { diagnostics: r.errors });
     if (r.kind === "stale") return refuse(409, r.message, { currentVersion: r.currentVersion });
-    await repo.setOrigin(trx, a.workshopId, build.id, o.presetId, o.libraryPresetId, o.latest);
+    await repo.setOrigin(trx, a.workshopId, build.id, o.presetId, o.libraryPresetId, o.latest, r.version);
     return { status: 200, body: { version: r.version, libraryVersion: o.latest } };
   });
 }
@@ -189,7 +189,7 @@ export async function rollOut(db: Db, a: Actor, libraryPresetId: string, apply: 
     const saved = await db.transaction().execute(async (trx) => {
       const r = await storeCheckedConfigIn(trx, a.workshopId, b.id, next, b.configVersion, { author: a.userId, message: `Updated ${row.presetName} to ${preset.name} v${target} from the library (all builds)`, known: () => validate(b.config) });
       if (r.kind !== "saved") return r.message;
-      await repo.setOrigin(trx, a.workshopId, b.id, b.presetId, preset.id, target);
+      await repo.setOrigin(trx, a.workshopId, b.id, b.presetId, preset.id, target, r.version);
       return null;
     });
     rows.push(saved === null ? { ...row, applied: true } : { ...row, applied: false, error: saved });

@@ -186,12 +186,40 @@ export async function originsOf(db: Db, workshopId: string, buildId: string): Pr
     .execute();
 }
 
-export async function setOrigin(db: Db, workshopId: string, buildId: string, presetId: string, libraryPresetId: string, version: number) {
+/** The preset's origin from `revision` (the build's revision that holds it) on; logged for restores. */
+export async function setOrigin(db: Db, workshopId: string, buildId: string, presetId: string, libraryPresetId: string, version: number, revision: number) {
   await db
     .insertInto("build_preset_origins")
     .values({ build_id: buildId, preset_id: presetId, workshop_id: workshopId, library_preset_id: libraryPresetId, library_version: version })
     .onConflict((oc) => oc.columns(["build_id", "preset_id"]).doUpdateSet({ library_preset_id: libraryPresetId, library_version: version, added_at: new Date() }))
     .execute();
+  await db.insertInto("preset_origin_events").values({ build_id: buildId, preset_id: presetId, revision, library_preset_id: libraryPresetId, library_version: version }).execute();
+}
+
+/**
+ * After revision `asOf` was restored as revision `revision`: the build's origins become the ones
+ * revision `asOf` had (an origin whose library version has since been deleted is left out), and
+ * the change is logged at `revision`, so restoring any later revision finds it. Call in the
+ * restore's transaction.
+ */
+export async function restoreOrigins(db: Db, workshopId: string, buildId: string, asOf: number, revision: number) {
+  const then = await sql<{ preset_id: string; library_preset_id: string; library_version: number }>`
+    SELECT e.preset_id, e.library_preset_id, e.library_version
+    FROM (SELECT DISTINCT ON (preset_id) preset_id, library_preset_id, library_version
+          FROM preset_origin_events WHERE build_id = ${buildId} AND revision <= ${asOf}
+          ORDER BY preset_id, revision DESC, id DESC) e
+    JOIN library_versions v ON v.preset_id = e.library_preset_id AND v.version = e.library_version`.execute(db);
+  const now = await db.selectFrom("build_preset_origins").select(["preset_id", "library_preset_id", "library_version"]).where("build_id", "=", buildId).where("workshop_id", "=", workshopId).execute();
+  const wanted = new Map(then.rows.map((r) => [r.preset_id, r]));
+  for (const o of now)
+    if (!wanted.has(o.preset_id)) {
+      await db.deleteFrom("build_preset_origins").where("build_id", "=", buildId).where("preset_id", "=", o.preset_id).execute();
+      await db.insertInto("preset_origin_events").values({ build_id: buildId, preset_id: o.preset_id, revision, library_preset_id: null, library_version: null }).execute();
+    }
+  for (const w of wanted.values()) {
+    const same = now.find((o) => o.preset_id === w.preset_id && o.library_preset_id === w.library_preset_id && o.library_version === w.library_version);
+    if (!same) await setOrigin(db, workshopId, buildId, w.preset_id, w.library_preset_id, w.library_version, revision);
+  }
 }
 
 /** Builds using a library preset with their configs, for the dry run (one query). */

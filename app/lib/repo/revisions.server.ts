@@ -1,9 +1,11 @@
 // A build's config revisions: listed (sorted, filtered, paged on the server), read one by number,
-// and restored (a restore is a new save of the old content through saveConfig).
+// and restored (a restore is a new save of the old content through saveConfig, with the presets'
+// library origins put back as that revision had them).
 import { sql, type Kysely } from "kysely";
 import type { Database } from "../db/types";
 import { upgradeStored } from "../config/upgrade";
 import { saveConfig } from "./builds.server";
+import { restoreOrigins } from "./library.server";
 
 type Db = Kysely<Database>;
 
@@ -83,10 +85,15 @@ export type RevisionWithConfig = NonNullable<Awaited<ReturnType<typeof getRevisi
 export async function restoreRevision(db: Db, workshopId: string, buildId: string, number: number, expectedVersion: number, authorId: string, message?: string | null) {
   const old = await getRevision(db, workshopId, buildId, number);
   if (!old) return { kind: "missing" as const };
-  const saved = await saveConfig(db, workshopId, buildId, old.config, expectedVersion, {
-    authorId,
-    message: message?.trim() || `Restored revision ${number}`,
-    counts: { errors: old.errorCount, warnings: old.warningCount },
+  // The presets' library origins go back with the looks (decision 019), in the same transaction.
+  const saved = await db.transaction().execute(async (trx) => {
+    const n = await saveConfig(trx, workshopId, buildId, old.config, expectedVersion, {
+      authorId,
+      message: message?.trim() || `Restored revision ${number}`,
+      counts: { errors: old.errorCount, warnings: old.warningCount },
+    });
+    if (n !== null) await restoreOrigins(trx, workshopId, buildId, number, n);
+    return n;
   });
   return saved === null ? { kind: "stale" as const } : { kind: "restored" as const, number: saved };
 }
