@@ -169,7 +169,7 @@ test("the one-time link signs the client in, once, on the sheet they were sent t
   await expect(page.getByRole("alert")).toHaveText("This code or link was already used to sign in. Ask for a new code if you need to sign in again.");
 });
 
-test("a wrong code, a malformed address and a link from nowhere are refused with their reasons", async ({ page, sql, pageErrors }) => {
+test("a wrong code, a malformed address and a link from nowhere are refused with their reasons; an unknown address gets the same answer and no mail", async ({ page, sql, pageErrors }) => {
   void pageErrors;
   const { code } = await askForCode(page, sql);
   const wrong = code === "000000" ? "111111" : "000000";
@@ -187,6 +187,17 @@ test("a wrong code, a malformed address and a link from nowhere are refused with
   await newCode.getByLabel("Your e-mail address").evaluate((el) => el.removeAttribute("type")); // past the browser's own check
   await newCode.getByRole("button", { name: "E-mail me a code" }).click();
   await expect(page.getByRole("alert")).toHaveText("Type an e-mail address such as name@example.com.");
+
+  // An address that is no client's: the same words as for a client, and no mail.
+  const since = new Date(Date.now() - 2000);
+  await page.goto("/login");
+  const clients = page.getByRole("region", { name: "Clients: sign in with your e-mail" });
+  await clients.getByLabel("Your e-mail address").fill("stranger@example.test");
+  await clients.getByRole("button", { name: "E-mail me a code" }).click();
+  await expect(page.getByRole("status")).toHaveText("If this address belongs to a Hiltbench client, a code is on its way. It works for 10 minutes.");
+  await page.waitForTimeout(1500); // the outbox would have it by now; the sink a moment later
+  const queued = await sql.query("SELECT (SELECT count(*)::int FROM mail_outbox WHERE to_address = $1) AS o, (SELECT count(*)::int FROM mail_sink_messages WHERE $1 = ANY(envelope_to) AND received_at >= $2) AS s", ["stranger@example.test", since]);
+  expect(queued.rows[0]).toEqual({ o: 0, s: 0 });
 
   expect((await page.goto("/login/link?t=made-up"))?.status()).toBe(400);
   await expect(page.getByRole("alert")).toHaveText("This sign-in link is not one Hiltbench sent, or it was cut short. Ask for a new code.");
