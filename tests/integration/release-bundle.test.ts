@@ -95,4 +95,32 @@ describe.runIf(hasDatabase)("GET /api/builds/:id/release-bundle (PostgreSQL)", (
     expect(general.status).toBe(403);
     expect((await general.json()).error).toMatch(/release-bundle/);
   });
+
+  it("makes the released bytes again after the revision's own workshop template gets a new version", async () => {
+    const { builtinSource, BUILTIN_VERSION } = await import("~/lib/template");
+    const source = builtinSource("generic-header", BUILTIN_VERSION)!;
+    const t = await db.insertInto("templates").values({ workshop_id: ws, name: `release-pin-${Date.now()}` }).returning("id").executeTakeFirstOrThrow();
+    await db.insertInto("template_versions").values({ template_id: t.id, version: 1, source }).execute();
+    // Revision n is saved pinned to that template (version 1); a later save makes it an older revision.
+    const b = await db.selectFrom("builds").select(["config_version", "config"]).where("id", "=", harrier).executeTakeFirstOrThrow();
+    const n = b.config_version + 1;
+    for (const [number, pin] of [[n, true], [n + 1, false]] as const) {
+      await db
+        .insertInto("config_revisions")
+        .values({ build_id: harrier, workshop_id: ws, number, config: JSON.stringify(b.config), created_at: new Date(Date.UTC(2026, 11, 3, 10, number)), template_id: pin ? t.id : null, template_version: pin ? 1 : null })
+        .execute();
+      await db.updateTable("builds").set({ config_version: number }).where("id", "=", harrier).execute();
+    }
+    // The release download of revision n with its own template (asked for by no name: its recorded version).
+    const zip = await bytesOf(await call(bundle, "bundle", harrier, `?revision=${n}`, "builder"));
+    await db
+      .insertInto("releases")
+      .values({ build_id: harrier, workshop_id: ws, number: 1, revision: n, template_ref: t.id, name_mode: "long", card_gb: 32, bundle_sha256: sha(zip), bundle_bytes: zip.length, released_by: null })
+      .execute();
+    await db.insertInto("template_versions").values({ template_id: t.id, version: 2, source: `${source}\n/* changed in version 2 */\n` }).execute();
+    // Asking for the template by id now takes version 2: other bytes (so this test can tell).
+    expect(sha(await bytesOf(await call(bundle, "bundle", harrier, `?revision=${n}&template=${t.id}`, "builder")))).not.toBe(sha(zip));
+    const got = await bytesOf(await call(release, "release-bundle", harrier, "", "client-two"));
+    expect(sha(got)).toBe(sha(zip));
+  });
 });
