@@ -3,6 +3,9 @@ import { type RouteConfig, index, layout, prefix, route } from "@react-router/de
 export default [
   index("routes/home.tsx"),
   route("login", "routes/login.tsx"),
+  // Clients sign in with an e-mailed code or one-time link (decision 023).
+  route("login/code", "routes/login.code.tsx"),
+  route("login/link", "routes/login.link.tsx"),
   route("auth/github", "routes/auth.github.ts"),
   route("auth/github/callback", "routes/auth.github.callback.ts"),
   route("logout", "routes/logout.ts"),
@@ -13,6 +16,12 @@ export default [
   // Development mailbox (404 in production unless HB_DEV_MAILBOX=1).
   route("dev/mailbox", "routes/dev.mailbox._index.tsx"),
   route("dev/mailbox/:messageId", "routes/dev.mailbox.$messageId.tsx"),
+
+  // The client's side: their builds and each build's handoff sheet (members: a read-only preview).
+  layout("routes/handoff-layout.tsx", [
+    route("handoff", "routes/handoff._index.tsx"),
+    route("handoff/:buildId", "routes/handoff.$buildId.tsx"),
+  ]),
 
   layout("routes/app-layout.tsx", [
     route("builds", "routes/builds._index.tsx"),
@@ -60,6 +69,7 @@ export default [
     route("builds/:buildId/bundle", "routes/api.builds.$buildId.bundle.ts"),
     route("builds/:buildId/releases", "routes/api.builds.$buildId.releases.ts"),
     route("builds/:buildId/revisions/:n/bench-check", "routes/api.builds.$buildId.revisions.$n.bench-check.ts"),
+    route("builds/:buildId/release-bundle", "routes/api.builds.$buildId.release-bundle.ts"),
     route("builds/:buildId/presets", "routes/api.builds.$buildId.presets.ts"),
     route("builds/:buildId/preset-updates", "routes/api.builds.$buildId.preset-updates.ts"),
     route("builds/:buildId/requests", "routes/api.builds.$buildId.requests.ts"),

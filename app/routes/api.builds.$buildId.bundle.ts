@@ -5,6 +5,7 @@
 // findings) as JSON instead of the zip.
 import { Readable } from "node:stream";
 import { requireViewer } from "~/lib/auth/auth.server";
+import { can } from "~/lib/auth/permissions";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { readBundleQuery } from "~/lib/bundle/query";
 import { bundleFor, planAnswer } from "~/lib/bundle/service.server";
@@ -17,6 +18,7 @@ import type { Route } from "./+types/api.builds.$buildId.bundle";
 export function loader({ request, params }: Route.LoaderArgs) {
   return apiAnswer(async () => {
     const v = await requireViewer(request, "view:builds");
+    if (!can(v.role, "make:bundle")) fail(403, "Clients download the released card of their build: GET /api/builds/{buildId}/release-bundle.");
     const b = await loadBuildFor(v, params.buildId);
     const q = readBundleQuery(new URL(request.url).searchParams);
     if (!q.ok) fail(400, q.error);

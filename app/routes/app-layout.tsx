@@ -23,9 +23,15 @@ export default function AppLayout({ loaderData }: Route.ComponentProps) {
             hiltbench
           </NavLink>
           <span className="text-sm text-iron-400">{viewer.workshop}</span>
-          <NavLink to="/builds" className={link} end={false}>
-            Builds
-          </NavLink>
+          {can(viewer.role, "view:build-list") ? (
+            <NavLink to="/builds" className={link} end={false}>
+              Builds
+            </NavLink>
+          ) : (
+            <NavLink to="/handoff" className={link}>
+              Your builds
+            </NavLink>
+          )}
           {can(viewer.role, "view:templates") ? (
             <NavLink to="/templates" className={link}>
               Templates

@@ -11,7 +11,7 @@ import type { Route } from "./+types/builds.$buildId.bundle.check";
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Check a card · ${data?.buildName ?? "Build"} · Hiltbench` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const v = await requireViewer(request, "view:builds");
+  const v = await requireViewer(request, "make:bundle");
   const b = await loadBuildFor(v, params.buildId);
   return openBundlePage(v, b, new URL(request.url).searchParams);
 }

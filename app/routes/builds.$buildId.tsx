@@ -20,6 +20,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     canViewRevisions: can(v.role, "view:revisions"),
     canViewReviews: can(v.role, "view:reviews"),
     canViewRelease: can(v.role, "view:release"),
+    canMakeBundle: can(v.role, "make:bundle"),
     // Presets a version behind the library (a badge on every section of the build).
     outdated: can(v.role, "view:library") ? (await outdatedPresetsFor(v, b)).length : 0,
     // Client requests waiting for an answer (the workshop's tab; clients use their handoff page).
@@ -47,7 +48,7 @@ const SECTIONS = [
 ] as const;
 
 export default function BuildLayout({ loaderData }: Route.ComponentProps) {
-  const { build, canViewRevisions, canViewReviews, canViewRelease, canViewRequests, openRequests, outdated } = loaderData;
+  const { build, canViewRevisions, canViewReviews, canViewRelease, canMakeBundle, canViewRequests, openRequests, outdated } = loaderData;
   return (
     <div>
       <div className="flex flex-wrap items-baseline gap-3">
@@ -55,6 +56,9 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         <span className="rounded bg-soot-700 px-2 py-0.5 text-xs" data-testid="build-status">{STATUS_LABELS[build.status]}</span>
         {build.archived ? <span className="rounded bg-soot-800 px-2 py-0.5 text-xs text-iron-400">Archived</span> : null}
         <span className="text-iron-400">{build.client_name}</span>
+        <Link to={`/handoff/${build.id}`} className="text-sm">
+          {canMakeBundle ? "Preview the client's handoff" : "Your handoff sheet"}
+        </Link>
         {outdated ? (
           <Link to="looks#library-h" className="rounded border border-signal-warning px-2 py-0.5 text-xs no-underline" data-testid="build-update-badge">
             Update available from the library ({outdated} preset{outdated === 1 ? "" : "s"})
@@ -62,7 +66,7 @@ export default function BuildLayout({ loaderData }: Route.ComponentProps) {
         ) : null}
       </div>
       <nav className="mt-3 flex gap-1 border-b border-soot-700" aria-label="Build sections">
-        {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews) && (to !== "release" || canViewRelease) && (to !== "requests" || canViewRequests)).map(([to, label]) => (
+        {SECTIONS.filter(([to]) => (to !== "revisions" || canViewRevisions) && (to !== "reviews" || canViewReviews) && (to !== "bundle" || canMakeBundle) && (to !== "release" || canViewRelease) && (to !== "requests" || canViewRequests)).map(([to, label]) => (
           <NavLink key={to} to={to} end={to === "."} className={tab}>
             {label}
             {to === "requests" && openRequests > 0 ? (

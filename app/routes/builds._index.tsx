@@ -1,4 +1,4 @@
-import { Form, Link, useSearchParams } from "react-router";
+import { Form, Link, redirect, useSearchParams } from "react-router";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { parseBuildQuery, STATUS_LABELS } from "~/lib/forms/build-forms";
 import { BUILD_STATUSES } from "~/lib/db/types";
@@ -11,6 +11,8 @@ export const meta: Route.MetaFunction = () => [{ title: "Builds · Hiltbench" }]
 
 export async function loader({ request }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
+  // Clients land on their own list, the handoff (decision 023).
+  if (!can(v.role, "view:build-list")) throw redirect("/handoff");
   const query = parseBuildQuery(new URL(request.url));
   const { rows, total } = await buildsFor(v, query);
   return {

@@ -16,6 +16,7 @@ import * as m0100b from "./20261203_0100_preset_library";
 import * as m1300 from "./20261203_1300_release";
 import * as m1310 from "./20261203_1310_preset_origin_history";
 import * as m1320 from "./20261203_1320_client_requests";
+import * as m1400 from "./20261203_1400_sign_in_codes";
 
 export const migrations: Record<string, Migration> = {
   "20261202_0001_foundation": m0001,
@@ -33,4 +34,5 @@ export const migrations: Record<string, Migration> = {
   "20261203_1300_release": m1300,
   "20261203_1310_preset_origin_history": m1310,
   "20261203_1320_client_requests": m1320,
+  "20261203_1400_sign_in_codes": m1400,
 };

@@ -45,7 +45,9 @@ test("a reviewer sees builds and rigs but cannot edit them", async ({ page, sign
 test("a client sees only the builds they are the client of", async ({ page, signIn }) => {
   await signIn("client-one");
   await page.goto("/builds");
-  await expect(page.getByTestId("who")).toHaveText(/Client One · client/);
+  // The workshop's table sends a client to their own list (decision 023).
+  await expect(page).toHaveURL(/\/handoff$/);
+  await expect(page.getByTestId("who")).toHaveText("Client One");
   await expect(page.getByRole("link", { name: "Kestrel" })).toBeVisible();
   await expect(page.getByRole("link", { name: "Harrier" })).toHaveCount(0);
   await expect(page.getByRole("link", { name: "Workshop" })).toHaveCount(0);

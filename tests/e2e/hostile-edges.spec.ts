@@ -19,6 +19,7 @@ type Action = { route: string; method: "POST" | "PUT" | "DELETE"; path: (i: Ids)
 const ACTIONS: Action[] = [
   { route: "routes/logout.ts", method: "POST", path: () => "/logout", form: {} },
   { route: "routes/auth.github.ts", method: "POST", path: () => "/auth/github", form: { next: "/builds" } },
+  { route: "routes/login.code.tsx", method: "POST", path: () => "/login/code", form: { intent: "send", email: "client-one@example.test" } },
   { route: "routes/builds.new.tsx", method: "POST", path: () => "/builds/new", form: { name: "Cross-site build", status: "intake" } },
   { route: "routes/builds.$buildId._index.tsx", method: "POST", path: (i) => `/builds/${i.build}?index`, form: { intent: "archive" } },
   { route: "routes/builds.$buildId.rig.tsx", method: "POST", path: (i) => `/builds/${i.build}/rig`, form: { version: "0" } },
@@ -90,6 +91,7 @@ async function snapshot(sql: pg.Pool, ids: Ids) {
     builds: await q("SELECT count(*)::int AS n FROM builds"),
     templates: await q("SELECT count(*)::int AS n FROM template_versions"),
     invitations: await q("SELECT count(*)::int AS n FROM invitations"),
+    signInCodes: await q("SELECT count(*)::int AS n FROM sign_in_codes"),
     tokens: await q("SELECT count(*)::int AS n FROM api_tokens WHERE revoked_at IS NULL"),
     reviews: await q("SELECT (SELECT count(*)::int FROM review_requests) AS requests, (SELECT count(*)::int FROM review_comments) AS comments"),
     release: await q("SELECT (SELECT count(*)::int FROM bench_check_ticks) AS ticks, (SELECT count(*)::int FROM releases) AS releases"),

@@ -21,7 +21,23 @@ const CASES: Case[] = [
   { route: "/auth/github/callback", method: "GET", path: () => "/auth/github/callback", expect: all("redirect") },
   { route: "/logout", method: "GET", path: () => "/logout", expect: all("redirect") },
   { route: "/healthz", method: "GET", path: () => "/healthz", expect: all("ok") },
-  { route: "/builds", method: "GET", path: () => "/builds", expect: { ...all("ok"), anonymous: "login" } },
+  // Clients land on their handoff list instead of the workshop's table (decision 023).
+  { route: "/builds", method: "GET", path: () => "/builds", expect: { ...all("ok"), anonymous: "login", client: "redirect" } },
+  // E-mail sign-in for clients: the code page, sending or checking a code (an empty address is bad input), the one-time link.
+  { route: "/login/code", method: "GET", path: () => "/login/code", expect: { ...all("redirect"), anonymous: "ok" } },
+  // (Signed in, the page's loader after the action sends the person on, as it does on GET.)
+  { route: "/login/code", method: "POST", path: () => "/login/code", form: { intent: "send", email: "" }, expect: { ...all("redirect"), anonymous: "bad" } },
+  { route: "/login/code", method: "POST", path: () => "/login/code", form: { intent: "verify", code: "12" }, expect: { ...all("redirect"), anonymous: "bad" } },
+  { route: "/login/link", method: "GET", path: () => "/login/link", expect: all("bad") },
+  { route: "/login/link", method: "GET", path: () => "/login/link?t=not-a-link", expect: all("bad") },
+  // The handoff: a client's own builds; members see a read-only preview.
+  { route: "/handoff", method: "GET", path: () => "/handoff", expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/handoff/:buildId", method: "GET", path: (i) => `/handoff/${i.kestrel}`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/handoff/:buildId", method: "GET", path: (i) => `/handoff/${i.harrier}`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
+  // The released card: nothing released in the matrix's data (404); parameters are refused; another client's build is not found.
+  { route: "/api/builds/:buildId/release-bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/release-bundle`, expect: { ...all("404"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/release-bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/release-bundle?revision=1`, expect: { ...all("bad"), anonymous: "401" } },
+  { route: "/api/builds/:buildId/release-bundle", method: "GET", path: (i) => `/api/builds/${i.harrier}/release-bundle`, expect: { ...all("404"), anonymous: "401" } },
   { route: "/builds/new", method: "GET", path: () => "/builds/new", expect: staff("ok", "403") },
   { route: "/builds/new", method: "POST", path: () => "/builds/new", form: { name: "" }, expect: staff("bad", "403") },
   { route: "/builds/:buildId", method: "GET", path: (i) => `/builds/${i.kestrel}`, expect: { ...all("ok"), anonymous: "login" } },
@@ -90,18 +106,19 @@ const CASES: Case[] = [
   { route: "/builds/:buildId/fonts/audio/:sha256", method: "GET", path: (i) => `/builds/${i.harrier}/fonts/audio/${i.harrierSound}`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
   // A file that exists, asked for through a build that does not hold it.
   { route: "/builds/:buildId/fonts/audio/:sha256", method: "GET", path: (i) => `/builds/${i.kestrel}/fonts/audio/${"0".repeat(64)}`, expect: { ...all("404"), anonymous: "login" } },
-  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401" } },
-  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.harrier}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401", client: "404" } },
-  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?names=9.9`, expect: { ...all("bad"), anonymous: "401" } },
+  // Bundles of any revision or today's config: staff and reviewers; a client gets only the released card (decision 023).
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401", client: "403" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.harrier}/bundle?check=1`, expect: { ...all("ok"), anonymous: "401", client: "403" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?names=9.9`, expect: { ...all("bad"), anonymous: "401", client: "403" } },
   // A chosen revision: staff and reviewers (clients see no revisions, decision 012).
   { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?revision=1&check=1`, expect: { ...staff("ok", "403", "401"), reviewer: "ok" } },
-  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?revision=x`, expect: { ...all("bad"), anonymous: "401" } },
-  // The Bundle tab and Check a card: everyone who sees the build; a chosen revision only for those who see revisions.
-  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/api/builds/:buildId/bundle", method: "GET", path: (i) => `/api/builds/${i.kestrel}/bundle?revision=x`, expect: { ...all("bad"), anonymous: "401", client: "403" } },
+  // The Bundle tab and Check a card: staff and reviewers (clients download the released card from their handoff sheet).
+  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle`, expect: { ...all("ok"), anonymous: "login", client: "403" } },
   { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.harrier}/bundle?names=8.3&card=8`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
   { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle?revision=1`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
-  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle?card=none`, expect: { ...all("bad"), anonymous: "login" } },
-  { route: "/builds/:buildId/bundle/check", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle/check`, expect: { ...all("ok"), anonymous: "login" } },
+  { route: "/builds/:buildId/bundle", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle?card=none`, expect: { ...all("bad"), anonymous: "login", client: "403" } },
+  { route: "/builds/:buildId/bundle/check", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle/check`, expect: { ...all("ok"), anonymous: "login", client: "403" } },
   { route: "/builds/:buildId/bundle/check", method: "GET", path: (i) => `/builds/${i.harrier}/bundle/check`, expect: { ...all("ok"), anonymous: "login", client: "404" } },
   { route: "/builds/:buildId/bundle/check", method: "GET", path: (i) => `/builds/${i.kestrel}/bundle/check?revision=1`, expect: { ...staff("ok", "403"), reviewer: "ok" } },
   { route: "/builds/:buildId/reviews", method: "GET", path: (i) => `/builds/${i.kestrel}/reviews`, expect: { ...staff("ok", "403"), reviewer: "ok" } },

@@ -1,4 +1,4 @@
-// Client requests as people make them: the client asks through the API their page uses, the
+// Client requests as people make them: the client asks on their handoff page, the
 // builder gets the e-mail, opens the build's Requests tab (its badge counts what waits), takes the
 // request in hand with a reply, is refused a decline without a reason, closes it, and the client
 // gets the answer by e-mail; the builder also logs a request a client made by phone. Bad input
@@ -33,12 +33,22 @@ test("a client asks for one more font; the builder answers on the Requests tab a
   const client = await playwright.request.newContext({ baseURL: BASE_URL, extraHTTPHeaders: { Origin: BASE_URL } });
   try {
     await signInRequest(client, "client-one");
-    const asked = await client.post(`/api/builds/${id}/requests`, { data: { kind: "font", message: "Could the Gyrfalcon get one more font?\nSomething like a storm at sea." } });
-    expect(asked.status(), await asked.text()).toBe(201);
+    // The client asks on their handoff page.
+    await signIn("client-one");
+    await page.goto(`/handoff/${id}`);
+    const ask = page.getByRole("form", { name: "Send a request" });
+    await ask.getByLabel("What would you like?").selectOption({ label: "One more sound font" });
+    await ask.getByLabel("In your words").fill("Could the Gyrfalcon get one more font?\nSomething like a storm at sea.");
+    await ask.getByRole("button", { name: "Send to the workshop" }).click();
+    await expect(page.getByRole("status")).toContainText("Sent. The workshop has been told");
+    await expect(page.getByTestId("my-request")).toHaveCount(1);
+    await expect(page.getByTestId("my-request-status")).toHaveText("Sent, not yet read");
+    await expect(ask.getByLabel("In your words")).toHaveValue("");
 
     // The builder hears of it by e-mail and follows the link.
     const mail = await mailTo(sql, "builder@ember-anvil.example.test", `Client One asks: one more sound font (${name})`);
     expect(mail.text_body).toContain("> Something like a storm at sea.");
+    await page.context().clearCookies();
     await signIn("demo-builder");
     await page.goto(`/builds/${id}`);
     await expect(page.getByTestId("open-requests")).toHaveText("1");
@@ -71,9 +81,11 @@ test("a client asks for one more font; the builder answers on the Requests tab a
     const told = await mailTo(sql, "client-one@example.test", `Your request about the ${name}: done`);
     expect(told.text_body).toContain("> Loaded as font 4; hold the auxiliary button to reach it.");
 
-    // The client reads the answer through the API their page uses.
+    // The client reads the answer on their handoff page, and through the API it uses.
     const list = await (await client.get(`/api/builds/${id}/requests`)).json();
     expect(list).toMatchObject({ open: 0, requests: [{ kind: "font", status: "done", statusLabel: "Done", reply: "Loaded as font 4; hold the auxiliary button to reach it." }] });
+    const clientPage = await client.get(`/handoff/${id}`);
+    expect(await clientPage.text()).toContain("Loaded as font 4; hold the auxiliary button to reach it.");
 
     // A request made by phone, logged by the builder.
     await page.getByLabel("What kind").selectOption({ label: "Something is not working" });

@@ -54,8 +54,10 @@ test("a client invited by e-mail joins when they sign in", async ({ page, browse
   await expect(page.getByRole("status")).toContainText("Invitation recorded");
   const other = await browser.newPage();
   await signInAs(other, "late-client"); // the fake gives login@example.test as the verified e-mail
-  await other.goto("/builds");
+  await other.goto("/account");
   await expect(other.getByTestId("who")).toHaveText(/client/);
-  await expect(other.getByText("No builds match.")).toBeVisible();
+  await other.goto("/builds");
+  await expect(other).toHaveURL(/\/handoff$/);
+  await expect(other.getByText("There is no build for you yet.")).toBeVisible();
   await other.close();
 });

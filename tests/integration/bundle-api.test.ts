@@ -161,11 +161,12 @@ describe.runIf(hasDatabase)("GET /api/builds/:id/bundle (PostgreSQL, disk storag
     expect(await state()).toEqual(before);
   });
 
-  it("lets reviewers bundle a revision; clients get today's bundle but no revision of their build", async () => {
+  it("lets reviewers bundle a revision; clients get no bundle here, only the released card (decision 023)", async () => {
     expect((await get(`?revision=${revs.first}&check=1`, "reviewer")).status).toBe(200);
-    expect((await get("?check=1", "client")).status).toBe(200);
-    const res = await get(`?revision=${revs.first}&check=1`, "client");
-    expect(res.status).toBe(403);
-    expect((await res.json()).error).toMatch(/does not allow/);
+    for (const q of ["?check=1", "", `?revision=${revs.first}&check=1`]) {
+      const res = await get(q, "client");
+      expect(res.status).toBe(403);
+      expect((await res.json()).error).toMatch(/release-bundle/);
+    }
   });
 });

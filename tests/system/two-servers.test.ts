@@ -38,6 +38,36 @@ describe("two app servers on one database", () => {
     expect(after.status).toBe(401);
   });
 
+  it("a client's e-mailed sign-in code asked for on one server is typed on the other, and its link works there too (decision 023)", async () => {
+    const ask = async (server: Server) => {
+      const browser = new Browser(server.url);
+      const asked = await browser.fetch("/login/code", { method: "POST", body: new URLSearchParams({ intent: "send", email: "client-one@example.test" }), headers: { Origin: server.url } });
+      expect(asked.status).toBe(302);
+      const mail = (await sys.sql.query("SELECT subject, text_body FROM mail_outbox WHERE to_address = $1 ORDER BY created_at DESC LIMIT 1", ["client-one@example.test"])).rows[0];
+      return { browser, code: /sign-in code: (\d{6})/.exec(mail.subject)![1], link: new URL(/(http\S+\/login\/link\?t=\S+)/.exec(mail.text_body)![1]) };
+    };
+    const first = await ask(a);
+    const onB = new Browser(b.url);
+    onB.cookies = new Map(first.browser.cookies);
+    const typed = await onB.fetch("/login/code", { method: "POST", body: new URLSearchParams({ intent: "verify", code: first.code }), headers: { Origin: b.url } });
+    expect(typed.status).toBe(302);
+    expect(typed.headers.get("location")).toMatch(/\/handoff$/);
+    const list = await onB.fetch("/handoff");
+    expect(list.status).toBe(200);
+    expect(await list.text()).toContain("Kestrel");
+
+    const second = await ask(b);
+    const linkOnA = new Browser(a.url);
+    linkOnA.cookies = new Map(second.browser.cookies);
+    const opened = await linkOnA.fetch(second.link.pathname + second.link.search);
+    expect(opened.status).toBe(302);
+    expect(linkOnA.cookies.has("__hb_session")).toBe(true);
+    // Used once, on either server.
+    const again = new Browser(b.url);
+    again.cookies = new Map(second.browser.cookies);
+    expect((await again.fetch(second.link.pathname + second.link.search)).status).toBe(410);
+  });
+
   it("a save on one server is read at once by the other", async () => {
     const token = await tokenFor(sys.sql, "demo-builder");
     const builds = (await (await fetch(`${a.url}/api/builds`, { headers: bearer(token) })).json()) as { builds: { id: string }[] };

@@ -11,7 +11,7 @@ import { apiErrorSchema } from "./shapes";
  * The API's version. Major: a change a client must adapt to (a field removed or renamed, a
  * status or meaning changed). Minor: additions (a route, an optional field, a query value).
  */
-export const API_VERSION = "1.1.0";
+export const API_VERSION = "2.0.0";
 
 export const SETUP = `export HB=http://127.0.0.1:5173          # where Hiltbench runs (npm start prints it)
 export HB_TOKEN=hbt_...                     # Account → API tokens (or: npm run api-token -- demo-builder)

@@ -272,11 +272,11 @@ export const OPERATIONS: Operation[] = [
     tag: "Bundle",
     summary: "The SD card bundle",
     description: "One zip for the card: rendered config, fonts in folders, a readable copy, the handoff sheet and a checksum manifest; byte-identical for the same inputs. check=1 answers the plan as JSON.",
-    permission: "view:builds",
+    permission: "make:bundle",
     pathParams: buildId,
     query: bundleQuerySchema,
     answers: { 200: { description: "The zip (or, with check=1, its plan as JSON).", media: "application/zip", json: bundlePlanAnswer } },
-    errors: { 400: "A query value that is not allowed (field names it).", 404: NOT_YOURS, 422: "The card cannot be built: a name clash, a file too large, or a card too small (findings)." },
+    errors: { 400: "A query value that is not allowed (field names it).", 403: "Clients get no bundle here: they download the released card (release-bundle).", 404: NOT_YOURS, 422: "The card cannot be built: a name clash, a file too large, or a card too small (findings)." },
     curl: `curl ${AUTH} "$HB/api/builds/$KESTREL/bundle?check=1"\ncurl ${AUTH} -OJ "$HB/api/builds/$KESTREL/bundle?names=8.3&card=16"`,
   },
   {
@@ -345,6 +345,29 @@ export const OPERATIONS: Operation[] = [
       422: "The revision's bench check has no such item.",
     },
     curl: `curl ${AUTH} ${JSON_BODY} -X PUT -d '{"item": "card:matches", "ticked": true}' "$HB/api/builds/$KESTREL/revisions/1/bench-check"`,
+  },
+  {
+    method: "get",
+    path: "/api/builds/{buildId}/release-bundle",
+    tag: "Bundle",
+    summary: "The released card zip (the client's download)",
+    description:
+      "The card zip of the build's newest release, exactly as released: its revision, template, name rules and card size, so its SHA-256 is the one recorded at release (also in X-Bundle-SHA256). Takes no parameters. Clients get only this bundle, and only of their own builds.",
+    permission: "view:handoff",
+    pathParams: buildId,
+    answers: {
+      200: {
+        description: "The zip.",
+        media: "application/zip",
+        headers: { "X-Release-Number": "The release's number (1, 2, …).", "X-Bundle-SHA256": "The SHA-256 recorded when the build was released." },
+      },
+    },
+    errors: {
+      400: "A query parameter was sent (this download takes none).",
+      404: `${NOT_YOURS} Also: the build has not been released yet.`,
+      409: "The released card cannot be made again (a file it needs is gone).",
+    },
+    curl: `curl ${AUTH} -OJ "$HB/api/builds/$KESTREL/release-bundle"`,
   },
   {
     method: "get",

@@ -2,15 +2,21 @@ import { describe, expect, it } from "vitest";
 import { can, isRenderViewAction, mayGiveVerdict, PERMISSIONS, RENDER_VIEW_ACTIONS } from "./permissions";
 
 describe("role table", () => {
-  it("gives the owner everything and the client only viewing, the API and their own requests", () => {
+  it("gives the owner everything and the client only viewing, the API, their handoff and their own requests", () => {
     for (const p of PERMISSIONS) expect(can("owner", p)).toBe(true);
-    expect(PERMISSIONS.filter((p) => can("client", p))).toEqual(["view:builds", "use:api", "view:requests", "ask:request"]);
+    expect(PERMISSIONS.filter((p) => can("client", p))).toEqual(["view:builds", "use:api", "view:requests", "ask:request", "view:handoff"]);
   });
   it("clients and the workshop ask; only owners and builders answer; reviewers read", () => {
     const roles = ["owner", "builder", "reviewer", "client"] as const;
     expect(roles.filter((r) => can(r, "ask:request"))).toEqual(["owner", "builder", "client"]);
     expect(roles.filter((r) => can(r, "answer:request"))).toEqual(["owner", "builder"]);
     expect(roles.filter((r) => can(r, "view:requests"))).toEqual(["owner", "builder", "reviewer", "client"]);
+  });
+  it("sends clients to their handoff: no build list, no bundles of their own choosing; everyone may open a handoff sheet", () => {
+    const roles = ["owner", "builder", "reviewer", "client"] as const;
+    expect(roles.filter((r) => can(r, "view:build-list"))).toEqual(["owner", "builder", "reviewer"]);
+    expect(roles.filter((r) => can(r, "make:bundle"))).toEqual(["owner", "builder", "reviewer"]);
+    expect(roles.filter((r) => can(r, "view:handoff"))).toEqual([...roles]);
   });
   it("lets builders edit builds but not manage members; reviewers edit nothing", () => {
     expect(can("builder", "edit:build")).toBe(true);

@@ -30,6 +30,9 @@ export const PERMISSIONS = [
   "view:requests", // a build's client requests (a client: their own build's)
   "ask:request", // send a request about a build (its client, or the workshop logging one for them)
   "answer:request", // take a client request in hand, close or decline it, reply
+  "view:build-list", // the workshop's table of builds (clients land on their handoff list instead)
+  "make:bundle", // a card bundle of today's config or any revision, and Check a card (clients get only the released one)
+  "view:handoff", // a build's handoff sheet and its released card zip (clients: their own; members: a read-only preview)
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -59,9 +62,12 @@ const table: Record<Role, ReadonlySet<Permission>> = {
     "view:requests",
     "ask:request",
     "answer:request",
+    "view:build-list",
+    "make:bundle",
+    "view:handoff",
   ]),
-  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library", "view:release", "view:requests"]),
-  client: new Set(["view:builds", "use:api", "view:requests", "ask:request"]),
+  reviewer: new Set(["view:builds", "view:members", "use:api", "view:templates", "view:revisions", "view:reviews", "comment:review", "give:verdict", "be:reviewer", "view:library", "view:release", "view:requests", "view:build-list", "make:bundle", "view:handoff"]),
+  client: new Set(["view:builds", "use:api", "view:requests", "ask:request", "view:handoff"]),
 };
 
 export function can(role: Role, permission: Permission): boolean {

@@ -52,3 +52,11 @@ export function sessions() {
   storage ??= make();
   return storage;
 }
+
+/** A fresh session for a person who just signed in (a new id every time); its Set-Cookie value. */
+export async function startSession(userId: string): Promise<string> {
+  const store = sessions();
+  const session = await store.getSession();
+  session.set("userId", userId);
+  return store.commitSession(session);
+}

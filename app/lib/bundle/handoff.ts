@@ -1,6 +1,7 @@
 // The client's handoff sheet as one HTML file that opens offline from the card: controls in
 // plain words, presets with their fonts, and the cell cautions (the same wording as the app's
-// SafetyCautions block). A client-facing handoff page will later share this source.
+// SafetyCautions block). The client's handoff page (/handoff/:buildId) shows the same words:
+// `controlsInWords` and `presetsInWords` are the one source of both.
 import { CELL_CAUTIONS, DEFER_NOTE } from "../../components/SafetyCautions";
 import type { Config, Control } from "../config/schema";
 
@@ -27,10 +28,23 @@ function how(c: Control, config: Config): string {
   return `${g} ${button}${when}`;
 }
 
-export function handoffSheet(buildName: string, clientName: string, config: Config): string {
+export type ControlInWords = { what: string; how: string };
+export type PresetInWords = { id: string; position: number; name: string; font: string };
+
+/** Each control as a client reads it: what happens, and what to do for it. */
+export function controlsInWords(config: Config): ControlInWords[] {
+  return config.controls.map((c) => ({ what: EVENT_WORDS[c.event] ?? c.event, how: how(c, config) }));
+}
+
+/** The presets in the order the saber steps through them, each with its sound font's name. */
+export function presetsInWords(config: Config): PresetInWords[] {
   const fontName = (id: string) => config.fonts.find((f) => f.id === id)?.name ?? id;
-  const rows = config.controls.map((c) => `<tr><td>${esc(EVENT_WORDS[c.event] ?? c.event)}</td><td>${esc(how(c, config))}</td></tr>`).join("\n");
-  const presets = config.presets.map((p, i) => `<li>${i + 1}. ${esc(p.name)} — sound font ${esc(fontName(p.fontId))}</li>`).join("\n");
+  return config.presets.map((p, i) => ({ id: p.id, position: i + 1, name: p.name, font: fontName(p.fontId) }));
+}
+
+export function handoffSheet(buildName: string, clientName: string, config: Config): string {
+  const rows = controlsInWords(config).map((c) => `<tr><td>${esc(c.what)}</td><td>${esc(c.how)}</td></tr>`).join("\n");
+  const presets = presetsInWords(config).map((p) => `<li>${p.position}. ${esc(p.name)} — sound font ${esc(p.font)}</li>`).join("\n");
   const cautions = CELL_CAUTIONS.map((c) => `<li>${esc(c)}</li>`).join("\n");
   return `<!doctype html>
 <html lang="en">

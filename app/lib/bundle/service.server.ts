@@ -19,18 +19,23 @@ type BuildRow = RenderableBuild & { id: string; config: Config };
 export type BundleOptions = { template: string | null; mode: NameMode; cardGb: number; revision: number | null };
 export type BundleResult = BundlePlan & { name: string; revision: number; latest: boolean; template: { name: string; version: number; ref: string } };
 
-export async function bundleFor(v: Viewer, b: BuildRow, opts: BundleOptions): Promise<BundleResult> {
+/**
+ * `release`: the caller has already matched `opts` to the build's newest release row (the
+ * handoff's download, decision 023), so a client may have it without seeing revisions.
+ */
+export async function bundleFor(v: Viewer, b: BuildRow, opts: BundleOptions, release = false): Promise<BundleResult> {
+  const mayChooseRevision = () => release || requirePermission(v, "view:revisions");
   let subject: RenderableBuild & { config: Config };
   let t: ResolvedTemplate;
   let revision: number;
   if (opts.revision === null || opts.revision === b.config_version) {
     // Today's config is the newest revision; it renders with the build's pin as every render route does.
-    if (opts.revision !== null) requirePermission(v, "view:revisions");
+    if (opts.revision !== null) mayChooseRevision();
     subject = b;
     revision = b.config_version;
     t = await chooseTemplateForBuild(v, b, opts.template);
   } else {
-    requirePermission(v, "view:revisions");
+    mayChooseRevision();
     const r = await revisionOf(v, b, opts.revision);
     subject = { name: b.name, client_name: b.client_name, config_saved_at: r.createdAt, config_version: r.number, config: r.config, pinned_template_id: r.templateId, pinned_template_version: r.templateVersion };
     revision = r.number;

@@ -335,6 +335,20 @@ export interface ReleasesTable {
   released_at: Generated<Date>;
 }
 
+/** One e-mailed sign-in code: the address it went to, wrong tries, and its one use (decision 023). */
+export interface SignInCodesTable {
+  id: Generated<string>;
+  email: string;
+  /** SHA-256 of the encrypted code held in the browser's cookie. */
+  token_hash: string;
+  /** SHA-256 of the one-time link's token. */
+  link_hash: string;
+  attempts: Generated<number>;
+  created_at: Generated<Date>;
+  expires_at: Date;
+  used_at: Date | null;
+}
+
 export interface Database {
   workshops: WorkshopsTable;
   users: UsersTable;
@@ -362,6 +376,7 @@ export interface Database {
   bench_check_ticks: BenchCheckTicksTable;
   client_requests: ClientRequestsTable;
   releases: ReleasesTable;
+  sign_in_codes: SignInCodesTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

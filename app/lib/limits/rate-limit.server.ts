@@ -13,7 +13,9 @@ import { isDatabaseUnavailable } from "../db/unavailable";
 import { env } from "../env.server";
 import { clientAddress } from "./client-address.server";
 
-type Kind = "api-token" | "api-address" | "sign-in";
+type Kind = "api-token" | "api-address" | "sign-in" | "sign-in-codes";
+/** Sign-in codes per address are counted over a quarter of an hour, whatever the general window. */
+const CODES_WINDOW_SECONDS = 15 * 60;
 const limiters = new Map<Kind, RateLimiterPostgres>();
 let counterPool: pg.Pool | undefined;
 
@@ -31,7 +33,7 @@ function limiter(kind: Kind): RateLimiterPostgres {
   let l = limiters.get(kind);
   if (!l) {
     const e = env();
-    const points = { "api-token": e.HB_RATE_API_PER_TOKEN, "api-address": e.HB_RATE_API_PER_ADDRESS, "sign-in": e.HB_RATE_SIGNIN_PER_ADDRESS }[kind];
+    const points = { "api-token": e.HB_RATE_API_PER_TOKEN, "api-address": e.HB_RATE_API_PER_ADDRESS, "sign-in": e.HB_RATE_SIGNIN_PER_ADDRESS, "sign-in-codes": e.HB_RATE_SIGNIN_CODES_PER_EMAIL }[kind];
     l = new RateLimiterPostgres({
       storeClient: countersPool(),
       storeType: "pool",
@@ -39,7 +41,7 @@ function limiter(kind: Kind): RateLimiterPostgres {
       tableCreated: true,
       keyPrefix: kind,
       points,
-      duration: e.HB_RATE_WINDOW_SECONDS,
+      duration: kind === "sign-in-codes" ? CODES_WINDOW_SECONDS : e.HB_RATE_WINDOW_SECONDS,
     });
     limiters.set(kind, l);
   }
@@ -75,6 +77,14 @@ export async function limitApi(request: Request) {
 /** For sign-in steps (starting it, the provider's callback): one point per address. */
 export async function limitSignIn(request: Request) {
   await consume("sign-in", clientAddress(request), "to sign in from this address");
+}
+
+/**
+ * Before e-mailing a sign-in code: one point per e-mail address (its hash is the key), counted
+ * for every address asked for, known or not, so the answer says nothing about who is a client.
+ */
+export async function limitSignInCodes(email: string) {
+  await consume("sign-in-codes", tokenKey(email.toLowerCase()), "for this e-mail address");
 }
 
 /** Tests: forget the limiters so new settings take effect. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { commentMail, composeMail, linkTo, reviewRequestedMail, verdictMail } from "./messages";
+import { commentMail, composeMail, linkTo, reviewRequestedMail, signInCodeMail, verdictMail } from "./messages";
 
 describe("mail messages", () => {
   it("joins links onto APP_URL with or without a trailing slash", () => {
@@ -36,5 +36,17 @@ describe("mail messages", () => {
     const m = composeMail({ kind: "release", to: "c@e.test", subject: "Released", paragraphs: ["One", "Two"], action: { label: "See it", url: "http://h/r" } });
     expect(m.text.split("\n\n").slice(0, 3)).toEqual(["One", "Two", "See it: http://h/r"]);
     expect(m.kind).toBe("release");
+  });
+});
+
+describe("sign-in code mail", () => {
+  it("carries the code, how long it lasts and the one-time link, and says why it came", () => {
+    const m = signInCodeMail({ to: "client-one@example.test", code: "123456", minutes: 10, url: "http://127.0.0.1:5178/login/link?t=abc" });
+    expect(m.subject).toBe("Your Hiltbench sign-in code: 123456");
+    expect(m.text).toContain("Your sign-in code is 123456");
+    expect(m.text).toContain("for 10 minutes");
+    expect(m.text).toContain("Sign in to Hiltbench: http://127.0.0.1:5178/login/link?t=abc");
+    expect(m.text).toContain("someone asked to sign in to Hiltbench with this address");
+    expect(m.html).toContain('href="http://127.0.0.1:5178/login/link?t=abc"');
   });
 });

@@ -36,19 +36,20 @@ const FOOTER = "You get this because you are a member of a Hiltbench workshop.";
 export const CLIENT_FOOTER = "You get this because a Hiltbench workshop is building or looking after your saber.";
 
 export function composeMail(c: MailContent): MailMessage {
+  const footer = c.footer ?? FOOTER;
   const quote = c.quote !== undefined ? excerpt(c.quote) : undefined;
   const text = [
     ...c.paragraphs,
     ...(quote !== undefined ? [quote.split("\n").map((l) => `> ${l}`).join("\n")] : []),
     `${c.action.label}: ${c.action.url}`,
-    `-- \n${c.footer ?? FOOTER}`,
+    `-- \n${footer}`,
   ].join("\n\n");
   const html = [
     `<!doctype html><html><body style="font-family:system-ui,sans-serif;line-height:1.5;color:#1d1b19">`,
     ...c.paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`),
     ...(quote !== undefined ? [`<blockquote style="border-left:3px solid #c8642a;margin:0;padding-left:12px;white-space:pre-wrap">${escapeHtml(quote)}</blockquote>`] : []),
     `<p><a href="${escapeHtml(c.action.url)}">${escapeHtml(c.action.label)}</a></p>`,
-    `<p style="color:#6b645c;font-size:12px">${escapeHtml(c.footer ?? FOOTER)}</p>`,
+    `<p style="color:#6b645c;font-size:12px">${escapeHtml(footer)}</p>`,
     `</body></html>`,
   ].join("\n");
   return { kind: c.kind, to: c.to, subject: c.subject, text, html };
@@ -89,6 +90,22 @@ export function verdictMail(a: Revision & { to: string; reviewerName: string; ve
     paragraphs: [`${a.reviewerName} ${said} revision ${a.revision} of "${a.buildName}".`],
     quote: a.note || undefined,
     action: { label: "Open the review", url: a.url },
+  });
+}
+
+/** A client's one-time sign-in code and link (decision 023). */
+export function signInCodeMail(a: { to: string; code: string; minutes: number; url: string }): MailMessage {
+  return composeMail({
+    kind: "sign-in-code",
+    to: a.to,
+    subject: `Your Hiltbench sign-in code: ${a.code}`,
+    paragraphs: [
+      `Your sign-in code is ${a.code}. Type it on the page that asked for it; it works once, for ${a.minutes} minutes.`,
+      "Or open the link below in the same browser to sign in directly.",
+      "If you did not ask to sign in, you can ignore this message.",
+    ],
+    action: { label: "Sign in to Hiltbench", url: a.url },
+    footer: "You get this because someone asked to sign in to Hiltbench with this address.",
   });
 }
 

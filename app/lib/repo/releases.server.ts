@@ -1,5 +1,6 @@
 // Bench-check ticks and releases: data access only. Every read is scoped to the workshop.
-// Releases are immutable (a trigger); ticks are rows that exist while an item is ticked.
+// Releases are immutable (a trigger); ticks are rows that exist while an item is ticked. The
+// handoff reads the newest release (what the client gets).
 import type { Kysely, Transaction } from "kysely";
 import type { Database } from "../db/types";
 
@@ -94,4 +95,29 @@ export async function clientOf(db: Db, buildId: string) {
     .select(["u.email", "u.display_name"])
     .where("b.id", "=", buildId)
     .executeTakeFirst();
+}
+
+/** A build's newest release (highest number): what its client gets. */
+export function newestRelease(db: Db, workshopId: string, buildId: string) {
+  return db
+    .selectFrom("releases")
+    .select(["number", "revision", "template_ref", "name_mode", "card_gb", "bundle_sha256", "bundle_bytes", "note", "released_at"])
+    .where("workshop_id", "=", workshopId)
+    .where("build_id", "=", buildId)
+    .orderBy("number", "desc")
+    .limit(1)
+    .executeTakeFirst();
+}
+
+/** For a list of builds: which have a release, and the newest one's time. */
+export async function releasedBuilds(db: Db, workshopId: string, buildIds: string[]): Promise<Map<string, Date>> {
+  if (buildIds.length === 0) return new Map();
+  const rows = await db
+    .selectFrom("releases")
+    .select(["build_id", (eb) => eb.fn.max("released_at").as("at")])
+    .where("workshop_id", "=", workshopId)
+    .where("build_id", "in", buildIds)
+    .groupBy("build_id")
+    .execute();
+  return new Map(rows.map((r) => [r.build_id, new Date(r.at as unknown as string | Date)]));
 }

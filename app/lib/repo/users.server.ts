@@ -31,6 +31,45 @@ export async function signInGitHubUser(db: Db, profile: GitHubProfile): Promise<
   });
 }
 
+/**
+ * A client who signed in with an e-mailed code: the person with that address, or a new person
+ * for a pending invitation to it; invitations to the address become memberships.
+ */
+export async function signInEmailUser(db: Db, email: string): Promise<string> {
+  const address = email.toLowerCase();
+  return db.transaction().execute(async (trx) => {
+    let user = await trx.selectFrom("users").selectAll().where(sql`lower(email)`, "=", address).executeTakeFirst();
+    user ??= await trx
+      .insertInto("users")
+      .values({ github_login: null, email: address, display_name: address.split("@")[0] || address })
+      .returningAll()
+      .executeTakeFirstOrThrow();
+    await acceptInvitations(trx, user.id, null, [address]);
+    return user.id;
+  });
+}
+
+/** May this address get a sign-in code: a client member's e-mail, or a pending client invitation to it. */
+export async function isClientAddress(db: Db, email: string): Promise<boolean> {
+  const address = email.toLowerCase();
+  const member = await db
+    .selectFrom("users as u")
+    .innerJoin("memberships as m", "m.user_id", "u.id")
+    .select("u.id")
+    .where(sql`lower(u.email)`, "=", address)
+    .where("m.role", "=", "client")
+    .executeTakeFirst();
+  if (member) return true;
+  const invited = await db
+    .selectFrom("invitations")
+    .select("id")
+    .where(sql`lower(email)`, "=", address)
+    .where("role", "=", "client")
+    .where("accepted_at", "is", null)
+    .executeTakeFirst();
+  return Boolean(invited);
+}
+
 async function acceptInvitations(db: Db, userId: string, login: string | null, emails: string[]) {
   let q = db.selectFrom("invitations").selectAll().where("accepted_at", "is", null);
   q = q.where((eb) =>
