@@ -3,7 +3,7 @@
 //   is not stored: it is generated from the revision (app/lib/release/), so only ticks are facts.
 //   Unticking deletes the row. A tick belongs to one revision; a new revision starts unticked.
 // - `releases`: one immutable row per release of a build, numbered 1, 2, … per build: the
-//   revision handed over, the template and name rules its bundle was made with, and the bundle's
+//   revision handed over, the template (and its version) and name rules its bundle was made with, and the bundle's
 //   size and SHA-256 (the zip is byte-identical for the same inputs, so the checksum names it).
 //   A trigger refuses UPDATE and DELETE, with the same two database-made exits as revisions: the
 //   build's cascade, and `released_by` set to NULL when an account goes.
@@ -28,6 +28,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     number integer NOT NULL CHECK (number >= 1),
     revision integer NOT NULL,
     template_ref text NOT NULL CHECK (length(template_ref) BETWEEN 1 AND 200),
+    template_version integer NOT NULL CHECK (template_version >= 1),
     name_mode text NOT NULL CHECK (name_mode IN ('long', '8.3')),
     card_gb numeric NOT NULL CHECK (card_gb > 0),
     bundle_sha256 text NOT NULL CHECK (bundle_sha256 ~ '^[0-9a-f]{64}$'),

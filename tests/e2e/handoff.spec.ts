@@ -88,8 +88,8 @@ test("a client signs in with an e-mailed code, follows their build to its releas
     const zip = await zipRes.body();
     const sha = createHash("sha256").update(zip).digest("hex");
     await sql.query(
-      "INSERT INTO releases (build_id, workshop_id, number, revision, template_ref, name_mode, card_gb, bundle_sha256, bundle_bytes, note) SELECT id, workshop_id, 1, 1, $2, 'long', 32, $3, $4, 'Charge it fully before the first use.' FROM builds WHERE id = $1",
-      [id, plan.template.ref, sha, zip.length],
+      "INSERT INTO releases (build_id, workshop_id, number, revision, template_ref, template_version, name_mode, card_gb, bundle_sha256, bundle_bytes, note) SELECT id, workshop_id, 1, 1, $2, $5, 'long', 32, $3, $4, 'Charge it fully before the first use.' FROM builds WHERE id = $1",
+      [id, plan.template.ref, sha, zip.length, plan.template.version],
     );
 
     await page.reload();

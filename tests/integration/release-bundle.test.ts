@@ -70,7 +70,7 @@ describe.runIf(hasDatabase)("GET /api/builds/:id/release-bundle (PostgreSQL)", (
     const zip = await bytesOf(await call(bundle, "bundle", kestrel, `?revision=${revision}&template=${plan.template.ref}&names=8.3&card=16`, "builder"));
     await db
       .insertInto("releases")
-      .values({ build_id: kestrel, workshop_id: ws, number: 1, revision, template_ref: plan.template.ref, name_mode: "8.3", card_gb: 16, bundle_sha256: sha(zip), bundle_bytes: zip.length, released_by: null })
+      .values({ build_id: kestrel, workshop_id: ws, number: 1, revision, template_ref: plan.template.ref, template_version: plan.template.version, name_mode: "8.3", card_gb: 16, bundle_sha256: sha(zip), bundle_bytes: zip.length, released_by: null })
       .execute();
 
     const res = await call(release, "release-bundle", kestrel, "", "client-one");
@@ -115,12 +115,34 @@ describe.runIf(hasDatabase)("GET /api/builds/:id/release-bundle (PostgreSQL)", (
     const zip = await bytesOf(await call(bundle, "bundle", harrier, `?revision=${n}`, "builder"));
     await db
       .insertInto("releases")
-      .values({ build_id: harrier, workshop_id: ws, number: 1, revision: n, template_ref: t.id, name_mode: "long", card_gb: 32, bundle_sha256: sha(zip), bundle_bytes: zip.length, released_by: null })
+      .values({ build_id: harrier, workshop_id: ws, number: 1, revision: n, template_ref: t.id, template_version: 1, name_mode: "long", card_gb: 32, bundle_sha256: sha(zip), bundle_bytes: zip.length, released_by: null })
       .execute();
     await db.insertInto("template_versions").values({ template_id: t.id, version: 2, source: `${source}\n/* changed in version 2 */\n` }).execute();
     // Asking for the template by id now takes version 2: other bytes (so this test can tell).
     expect(sha(await bytesOf(await call(bundle, "bundle", harrier, `?revision=${n}&template=${t.id}`, "builder")))).not.toBe(sha(zip));
     const got = await bytesOf(await call(release, "release-bundle", harrier, "", "client-two"));
     expect(sha(got)).toBe(sha(zip));
+  });
+
+  it("makes the released bytes again after a template chosen by hand at release gets a new version", async () => {
+    const { builtinSource, BUILTIN_VERSION } = await import("~/lib/template");
+    const source = builtinSource("generic-header", BUILTIN_VERSION)!;
+    const t = await db.insertInto("templates").values({ workshop_id: ws, name: `release-chosen-${Date.now()}` }).returning("id").executeTakeFirstOrThrow();
+    await db.insertInto("template_versions").values({ template_id: t.id, version: 1, source: `${source}\n/* chosen at release */\n` }).execute();
+    const revision = (await db.selectFrom("builds").select("config_version").where("id", "=", kestrel).executeTakeFirstOrThrow()).config_version;
+    const zip = await bytesOf(await call(bundle, "bundle", kestrel, `?revision=${revision}&template=${t.id}&version=1`, "builder"));
+    const number = Number((await db.selectFrom("releases").select((eb) => eb.fn.max("number").as("n")).where("build_id", "=", kestrel).executeTakeFirst())?.n ?? 0) + 1;
+    await db
+      .insertInto("releases")
+      .values({ build_id: kestrel, workshop_id: ws, number, revision, template_ref: t.id, template_version: 1, name_mode: "long", card_gb: 32, bundle_sha256: sha(zip), bundle_bytes: zip.length, released_by: null })
+      .execute();
+    await db.insertInto("template_versions").values({ template_id: t.id, version: 2, source: `${source}\n/* changed after release */\n` }).execute();
+    // The template's newest version now makes other bytes; the release still makes its own.
+    expect(sha(await bytesOf(await call(bundle, "bundle", kestrel, `?revision=${revision}&template=${t.id}`, "builder")))).not.toBe(sha(zip));
+    expect(sha(await bytesOf(await call(release, "release-bundle", kestrel, "", "client-one")))).toBe(sha(zip));
+    // A version the template does not have is a 404 naming it.
+    const missing = await call(bundle, "bundle", kestrel, `?revision=${revision}&template=${t.id}&version=9`, "builder");
+    expect(missing.status).toBe(404);
+    expect((await missing.json()).error).toMatch(/no version 9/);
   });
 });

@@ -12,6 +12,7 @@ import type { Viewer } from "~/lib/auth/auth.server";
 import type { Database, Role } from "~/lib/db/types";
 import type { MailMessage } from "~/lib/mail/messages";
 import { benchItems } from "~/lib/release/checklist";
+import { BUILTIN_VERSION } from "~/lib/template";
 import { benchCheckFor, releaseBuildFor, setTickFor, type ReleaseDeps } from "~/lib/release/service.server";
 import { createToken } from "~/lib/repo/tokens.server";
 import { seed } from "../../db/seed";
@@ -135,8 +136,8 @@ describe.runIf(hasDatabase)("bench check and release (PostgreSQL, disk storage)"
     const n = b.config_version;
     const r = await releaseBuildFor(people.builder, b, { revision: n, note: "First handoff", template: null, mode: "long", cardGb: 32 }, deps);
     expect(r).toMatchObject({ number: 1, revision: n, names: "long", card: 32, note: "First handoff", releasedBy: people.builder.user.displayName });
-    // The bundle API serves the same bytes for the release's own choices (the revision's own template: none asked for).
-    expect(r.download).toBe(`/api/builds/${buildId}/bundle?revision=${n}&names=long&card=32`);
+    // The bundle API serves the same bytes for the release's own choices, the template named with the version it rendered at.
+    expect(r.download).toBe(`/api/builds/${buildId}/bundle?revision=${n}&template=generic-header&version=${BUILTIN_VERSION}&names=long&card=32`);
     const res = await bundleLoader({ request: new Request(`http://127.0.0.1${r.download}`, { headers: { Authorization: `Bearer ${token}` } }), params: { buildId }, context: {} });
     expect(res.status).toBe(200);
     const zip = new Uint8Array(await res.arrayBuffer());

@@ -7,10 +7,17 @@ import type { NameMode } from "./names";
 /** Card sizes offered on the Bundle page, in decimal GB as cards are sold; the API takes any size up to 2 TB. */
 export const CARD_SIZES = [1, 2, 4, 8, 16, 32, 64, 128, 256] as const;
 
-export type BundleQuery = { revision: number | null; template: string | null; mode: NameMode; cardGb: number; check: boolean };
+export type BundleQuery = { revision: number | null; template: string | null; templateVersion: number | null; mode: NameMode; cardGb: number; check: boolean };
 
 const schema = z.object({
   template: z.string().trim().min(1).max(100).optional().meta({ description: "A template id or built-in name; the build's pinned template when absent." }),
+  version: z.coerce
+    .number({ message: "version is a template version number, e.g. 2" })
+    .int("version is a whole number")
+    .min(1, "version is at least 1")
+    .max(2147483647, "version is too large")
+    .optional()
+    .meta({ description: "The template's version (of `template`, else of the revision's own template); its newest (or, for the build's own template, its pinned) version when absent. A release's download names it, so the released bytes come back after the template is edited." }),
   names: z.enum(["long", "8.3"], { message: "names is long or 8.3" }).default("long").meta({ description: "Long FAT32 names, or 8.3 names for boards that read only those." }),
   card: z.coerce
     .number({ message: "card is the card's size in GB, e.g. 32" })
@@ -38,5 +45,5 @@ export function readBundleQuery(params: URLSearchParams): Read<BundleQuery> {
   const parsed = schema.safeParse(rest);
   if (!parsed.success) return { ok: false, error: `Bad query: ${parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}` };
   const q = parsed.data;
-  return { ok: true, value: { revision, template: q.template ?? null, mode: q.names, cardGb: q.card, check: q.check === "1" } };
+  return { ok: true, value: { revision, template: q.template ?? null, templateVersion: q.version ?? null, mode: q.names, cardGb: q.card, check: q.check === "1" } };
 }

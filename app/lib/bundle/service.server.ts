@@ -6,9 +6,10 @@ import { requirePermission } from "../auth/auth.server";
 import type { Config } from "../config/schema";
 import { db } from "../db/db.server";
 import { downloadName } from "../rendering/render";
-import { API_LIMITS, chooseTemplateForBuild, renderBuildOrSource, resolveTemplate, type RenderableBuild, type ResolvedTemplate } from "../rendering/service.server";
+import { API_LIMITS, chooseTemplateForBuild, pinRef, renderBuildOrSource, resolveTemplate, type RenderableBuild, type ResolvedTemplate } from "../rendering/service.server";
 import { latestFontFiles } from "../repo/fonts.server";
 import { revisionOf, templateForRevision } from "../revisions/compare.server";
+import { DEFAULT_BUILTIN } from "../template";
 import { fail } from "../web/http.server";
 import { drawWiring } from "../wiring";
 import type { NameMode } from "./names";
@@ -16,7 +17,7 @@ import { planBundle, type BundlePlan } from "./plan";
 
 type BuildRow = RenderableBuild & { id: string; config: Config };
 
-export type BundleOptions = { template: string | null; mode: NameMode; cardGb: number; revision: number | null };
+export type BundleOptions = { template: string | null; templateVersion?: number | null; mode: NameMode; cardGb: number; revision: number | null };
 export type BundleResult = BundlePlan & { name: string; revision: number; latest: boolean; template: { name: string; version: number; ref: string } };
 
 /**
@@ -33,13 +34,14 @@ export async function bundleFor(v: Viewer, b: BuildRow, opts: BundleOptions, rel
     if (opts.revision !== null) mayChooseRevision();
     subject = b;
     revision = b.config_version;
-    t = await chooseTemplateForBuild(v, b, opts.template);
+    // A version names the template exactly (a release's download): the asked one, else the build's own.
+    t = opts.templateVersion ? await resolveTemplate(v, opts.template ?? pinRef(b), opts.templateVersion) : await chooseTemplateForBuild(v, b, opts.template);
   } else {
     mayChooseRevision();
     const r = await revisionOf(v, b, opts.revision);
     subject = { name: b.name, client_name: b.client_name, config_saved_at: r.createdAt, config_version: r.number, config: r.config, pinned_template_id: r.templateId, pinned_template_version: r.templateVersion };
     revision = r.number;
-    t = await templateForRevision(v, r, opts.template);
+    t = opts.templateVersion ? await resolveTemplate(v, opts.template ?? r.templateId ?? DEFAULT_BUILTIN, opts.templateVersion) : await templateForRevision(v, r, opts.template);
   }
   const r = await renderBuildOrSource(v, { build: subject }, t, API_LIMITS);
   if (r.kind !== "rendered") fail(422, `Revision ${revision} does not render with template ${t.name}: ${r.errors[0]?.message ?? "error"}`);

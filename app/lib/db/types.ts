@@ -324,6 +324,8 @@ export interface ReleasesTable {
   revision: number;
   /** The bundle's template, as BundleResult's `template.ref`. */
   template_ref: string;
+  /** The template's version the bundle rendered with: the same bytes come back after later edits. */
+  template_version: number;
   name_mode: "long" | "8.3";
   /** numeric: pg answers a string. */
   card_gb: ColumnType<string, number | string, never>;

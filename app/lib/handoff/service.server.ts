@@ -12,7 +12,6 @@ import type { BuildStatus } from "../db/types";
 import { listBuilds } from "../repo/builds.server";
 import { newestRelease, releasedBuilds } from "../repo/releases.server";
 import { getRevision } from "../repo/revisions.server";
-import { DEFAULT_BUILTIN } from "../template";
 import { fail } from "../web/http.server";
 import { stageInWords, type StageWords } from "./words";
 
@@ -66,13 +65,9 @@ export async function releaseBundleFor(v: Viewer, buildId: string): Promise<{ pl
   const b = await loadBuildFor(v, buildId);
   const r = await newestRelease(db(), v.workshop.id, b.id);
   if (!r) fail(404, `${b.name} has not been released yet: the workshop e-mails you when its card is ready.`);
-  // The revision's own template is asked for by no name, so it renders at its pinned version (as
-  // the release's own link does, decision 022); a template chosen by hand is asked for by id.
-  const rev = await getRevision(db(), v.workshop.id, b.id, r.revision);
-  if (!rev) fail(404, `${b.name}'s release ${r.number} names a revision that is gone.`);
-  const own = (r.revision === b.config_version ? b.pinned_template_id : rev.templateId) ?? DEFAULT_BUILTIN;
-  const template = r.template_ref === own ? null : r.template_ref;
-  const plan = await bundleFor(v, b, { revision: r.revision, template, mode: r.name_mode, cardGb: Number(r.card_gb) }, true);
+  // The template and the version recorded at release, named exactly (as the release's own link
+  // does, decision 022), so later edits of the template or the build's pin change nothing here.
+  const plan = await bundleFor(v, b, { revision: r.revision, template: r.template_ref, templateVersion: r.template_version, mode: r.name_mode, cardGb: Number(r.card_gb) }, true);
   const errors = plan.findings.filter((f) => f.severity === "error");
   if (errors.length) fail(409, `The released card of ${b.name} cannot be made again: ${errors.map((e) => e.message).join(" ")} Ask the workshop.`);
   return {

@@ -19,7 +19,6 @@ import type { MailMessage } from "../mail/messages";
 import * as repo from "../repo/releases.server";
 import { revisionOf } from "../revisions/compare.server";
 import { storage } from "../storage/settings.server";
-import { DEFAULT_BUILTIN } from "../template";
 import { fail } from "../web/http.server";
 import { benchChecklist } from "./checklist";
 import { releaseBlocker, type BenchCheck } from "./rules";
@@ -87,13 +86,12 @@ export type Release = {
 };
 
 /**
- * The bundle's address with the release's choices. A release made with the revision's own
- * template leaves `template` out, so the bundle route takes that template at its pinned version
- * (asking for a workshop template by id would take its newest version).
+ * The bundle's address with the release's choices: the template and the version it rendered
+ * with, named exactly, so the same bytes come back after the template (or the build's pin)
+ * changes.
  */
-export function downloadHref(buildId: string, r: { revision: number; template_ref: string; name_mode: string; card_gb: string | number; own_template: string }): string {
-  const q = new URLSearchParams({ revision: String(r.revision) });
-  if (r.template_ref !== r.own_template) q.set("template", r.template_ref);
+export function downloadHref(buildId: string, r: { revision: number; template_ref: string; template_version: number; name_mode: string; card_gb: string | number }): string {
+  const q = new URLSearchParams({ revision: String(r.revision), template: r.template_ref, version: String(r.template_version) });
   q.set("names", r.name_mode);
   q.set("card", String(Number(r.card_gb)));
   return `/api/builds/${buildId}/bundle?${q}`;
@@ -112,8 +110,7 @@ function releaseOf(buildId: string, r: repo.ReleaseRow): Release {
     note: r.note,
     releasedBy: r.released_by_name ?? null,
     releasedAt: r.released_at.toISOString(),
-    // The template a revision renders with when none is asked for (bundleFor): the build's pin for today's config, else the revision's.
-    download: downloadHref(buildId, { ...r, own_template: (r.revision === r.config_version ? r.pinned_template_id : r.revision_template_id) ?? DEFAULT_BUILTIN }),
+    download: downloadHref(buildId, r),
   };
 }
 
@@ -158,6 +155,7 @@ export async function releaseBuildFor(v: Viewer, b: Build, input: ReleaseInput, 
           number,
           revision: input.revision,
           templateRef: plan.template.ref,
+          templateVersion: plan.template.version,
           nameMode: input.mode,
           cardGb: input.cardGb,
           sha256,

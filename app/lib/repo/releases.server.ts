@@ -44,10 +44,8 @@ export async function releasesOf(db: Db, workshopId: string, buildId: string) {
   return db
     .selectFrom("releases as r")
     .leftJoin("users as u", "u.id", "r.released_by")
-    .innerJoin("builds as b", "b.id", "r.build_id")
-    .innerJoin("config_revisions as cr", (j) => j.onRef("cr.build_id", "=", "r.build_id").onRef("cr.number", "=", "r.revision"))
     .selectAll("r")
-    .select(["u.display_name as released_by_name", "cr.template_id as revision_template_id", "b.pinned_template_id", "b.config_version"])
+    .select(["u.display_name as released_by_name"])
     .where("r.workshop_id", "=", workshopId)
     .where("r.build_id", "=", buildId)
     .orderBy("r.number", "desc")
@@ -62,7 +60,7 @@ export async function lastReleaseNumber(db: Db, buildId: string): Promise<number
 
 export async function insertRelease(
   db: Db,
-  r: { buildId: string; workshopId: string; number: number; revision: number; templateRef: string; nameMode: "long" | "8.3"; cardGb: number; sha256: string; bytes: number; note: string; userId: string },
+  r: { buildId: string; workshopId: string; number: number; revision: number; templateRef: string; templateVersion: number; nameMode: "long" | "8.3"; cardGb: number; sha256: string; bytes: number; note: string; userId: string },
 ) {
   return db
     .insertInto("releases")
@@ -72,6 +70,7 @@ export async function insertRelease(
       number: r.number,
       revision: r.revision,
       template_ref: r.templateRef,
+      template_version: r.templateVersion,
       name_mode: r.nameMode,
       card_gb: r.cardGb,
       bundle_sha256: r.sha256,
@@ -101,7 +100,7 @@ export async function clientOf(db: Db, buildId: string) {
 export function newestRelease(db: Db, workshopId: string, buildId: string) {
   return db
     .selectFrom("releases")
-    .select(["number", "revision", "template_ref", "name_mode", "card_gb", "bundle_sha256", "bundle_bytes", "note", "released_at"])
+    .select(["number", "revision", "template_ref", "template_version", "name_mode", "card_gb", "bundle_sha256", "bundle_bytes", "note", "released_at"])
     .where("workshop_id", "=", workshopId)
     .where("build_id", "=", buildId)
     .orderBy("number", "desc")
