@@ -16,7 +16,7 @@ import { DEFAULT_LAYOUT } from "~/lib/fonts/layout";
 import { receiveUpload } from "~/lib/fonts/receive.server";
 import { createToken } from "~/lib/repo/tokens.server";
 import { seed } from "../../db/seed";
-import { freshDatabase, hasDatabase } from "./db";
+import { freshAppDatabase, hasDatabase } from "./db";
 
 const work = mkdtempSync(path.join(tmpdir(), "hb-bundle-api-"));
 afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -67,19 +67,9 @@ describe.runIf(hasDatabase)("GET /api/builds/:id/bundle (PostgreSQL, disk storag
   });
 
   beforeAll(async () => {
-    const fresh = await freshDatabase();
+    // The routes read their settings from the environment, as the server does.
+    const fresh = await freshAppDatabase({ HB_DATA_DIR: work, HB_STORAGE: "disk" });
     db = fresh.db;
-    // The route reads its settings from the environment, as the server does.
-    Object.assign(process.env, {
-      DATABASE_URL: fresh.url,
-      SESSION_SECRET: "integration-test-secret-0123456789",
-      APP_URL: "http://127.0.0.1:9",
-      AUTH_PROVIDER: "fake-github",
-      FAKE_GITHUB_URL: "http://127.0.0.1:9",
-      SMTP_URL: "smtp://127.0.0.1:9",
-      HB_DATA_DIR: work,
-      HB_STORAGE: "disk",
-    });
     ws = (await seed(db)).workshopId;
     buildId = (await db.selectFrom("builds").select("id").where("name", "=", "Kestrel").executeTakeFirstOrThrow()).id;
     for (const [who, login] of [["builder", "demo-builder"], ["reviewer", "demo-reviewer"]]) {

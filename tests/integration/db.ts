@@ -33,3 +33,21 @@ export async function freshDatabase({ empty = false } = {}) {
   });
   return { db, url };
 }
+
+/**
+ * A fresh database and the environment the app's routes and services read, as the server would
+ * have it (settings are read from process.env). `more` adds or overrides settings (e.g. HB_DATA_DIR).
+ */
+export async function freshAppDatabase(more: Record<string, string> = {}) {
+  const fresh = await freshDatabase();
+  Object.assign(process.env, {
+    DATABASE_URL: fresh.url,
+    SESSION_SECRET: "integration-test-secret-0123456789",
+    APP_URL: "http://127.0.0.1:9",
+    AUTH_PROVIDER: "fake-github",
+    FAKE_GITHUB_URL: "http://127.0.0.1:9",
+    SMTP_URL: "smtp://127.0.0.1:9",
+    ...more,
+  });
+  return fresh;
+}

@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Database } from "~/lib/db/types";
 import { createToken } from "~/lib/repo/tokens.server";
 import { seed } from "../../db/seed";
-import { freshDatabase, hasDatabase } from "./db";
+import { freshAppDatabase, hasDatabase } from "./db";
 
 const work = mkdtempSync(path.join(tmpdir(), "hb-release-bundle-"));
 afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -32,18 +32,9 @@ describe.runIf(hasDatabase)("GET /api/builds/:id/release-bundle (PostgreSQL)", (
   const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
 
   beforeAll(async () => {
-    const fresh = await freshDatabase();
+    // The routes read their settings from the environment, as the server does.
+    const fresh = await freshAppDatabase({ HB_DATA_DIR: work, HB_STORAGE: "disk" });
     db = fresh.db;
-    Object.assign(process.env, {
-      DATABASE_URL: fresh.url,
-      SESSION_SECRET: "integration-test-secret-0123456789",
-      APP_URL: "http://127.0.0.1:9",
-      AUTH_PROVIDER: "fake-github",
-      FAKE_GITHUB_URL: "http://127.0.0.1:9",
-      SMTP_URL: "smtp://127.0.0.1:9",
-      HB_DATA_DIR: work,
-      HB_STORAGE: "disk",
-    });
     ws = (await seed(db)).workshopId;
     kestrel = (await db.selectFrom("builds").select("id").where("name", "=", "Kestrel").executeTakeFirstOrThrow()).id;
     harrier = (await db.selectFrom("builds").select("id").where("name", "=", "Harrier").executeTakeFirstOrThrow()).id;

@@ -16,7 +16,7 @@ import { BUILTIN_VERSION } from "~/lib/template";
 import { benchCheckFor, releaseBuildFor, setTickFor, type ReleaseDeps } from "~/lib/release/service.server";
 import { createToken } from "~/lib/repo/tokens.server";
 import { seed } from "../../db/seed";
-import { freshDatabase, hasDatabase } from "./db";
+import { freshAppDatabase, hasDatabase } from "./db";
 
 const work = mkdtempSync(path.join(tmpdir(), "hb-release-"));
 afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -56,18 +56,9 @@ describe.runIf(hasDatabase)("bench check and release (PostgreSQL, disk storage)"
   };
 
   beforeAll(async () => {
-    const fresh = await freshDatabase();
+    // The routes read their settings from the environment, as the server does.
+    const fresh = await freshAppDatabase({ HB_DATA_DIR: work, HB_STORAGE: "disk" });
     db = fresh.db;
-    Object.assign(process.env, {
-      DATABASE_URL: fresh.url,
-      SESSION_SECRET: "integration-test-secret-0123456789",
-      APP_URL: "http://127.0.0.1:9",
-      AUTH_PROVIDER: "fake-github",
-      FAKE_GITHUB_URL: "http://127.0.0.1:9",
-      SMTP_URL: "smtp://127.0.0.1:9",
-      HB_DATA_DIR: work,
-      HB_STORAGE: "disk",
-    });
     ws = (await seed(db)).workshopId;
     buildId = (await db.selectFrom("builds").select("id").where("name", "=", "Kestrel").executeTakeFirstOrThrow()).id;
     const rows = await db.selectFrom("memberships as m").innerJoin("users as u", "u.id", "m.user_id").select(["u.id", "u.display_name", "u.github_login", "u.email", "m.role"]).where("m.workshop_id", "=", ws).execute();

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Database } from "~/lib/db/types";
 import type { MailMessage } from "~/lib/mail/messages";
 import { seed } from "../../db/seed";
-import { freshDatabase, hasDatabase } from "./db";
+import { freshAppDatabase, hasDatabase } from "./db";
 
 // The outbox row is written in the caller's transaction, as the real queue does (no pg-boss here).
 vi.mock("~/lib/mail/mailer.server", () => ({
@@ -81,17 +81,9 @@ describe.runIf(hasDatabase)("e-mail sign-in (PostgreSQL)", () => {
   const userId = async (email: string) => (await db.selectFrom("users").select("id").where("email", "=", email).executeTakeFirstOrThrow()).id;
 
   beforeAll(async () => {
-    const fresh = await freshDatabase();
+    // The routes read their settings from the environment, as the server does.
+    const fresh = await freshAppDatabase({ APP_URL: "http://hb.test", HB_RATE_SIGNIN_CODES_PER_EMAIL: "3" });
     db = fresh.db;
-    Object.assign(process.env, {
-      DATABASE_URL: fresh.url,
-      SESSION_SECRET: "integration-test-secret-0123456789",
-      APP_URL: "http://hb.test",
-      AUTH_PROVIDER: "fake-github",
-      FAKE_GITHUB_URL: "http://127.0.0.1:9",
-      SMTP_URL: "smtp://127.0.0.1:9",
-      HB_RATE_SIGNIN_CODES_PER_EMAIL: "3",
-    });
     await seed(db);
     flow = await import("~/lib/auth/email-sign-in.server");
   });
