@@ -3,13 +3,12 @@
 // byte-identical for the same inputs. A name clash, a file over FAT32's limit or a card too small
 // refuses the zip with the findings (422); `check=1` answers the plan (files, sizes, SHA-256,
 // findings) as JSON instead of the zip.
-import { Readable } from "node:stream";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { can } from "~/lib/auth/permissions";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { readBundleQuery } from "~/lib/bundle/query";
 import { bundleFor, planAnswer } from "~/lib/bundle/service.server";
-import { zipBundle } from "~/lib/bundle/zip.server";
+import { zipResponse } from "~/lib/bundle/zip.server";
 import { storage } from "~/lib/storage/settings.server";
 import { bundlePlanAnswer } from "~/lib/api-doc/shapes";
 import { apiAnswer, fail, jsonAs } from "~/lib/web/http.server";
@@ -26,16 +25,10 @@ export function loader({ request, params }: Route.LoaderArgs) {
     if (q.value.check) return jsonAs(bundlePlanAnswer, planAnswer(plan));
     const errors = plan.findings.filter((f) => f.severity === "error");
     if (errors.length) fail(422, `The card cannot be built: ${errors.map((e) => e.message).join(" ")}`, { findings: plan.findings });
-    const body = zipBundle(plan, storage());
-    return new Response(Readable.toWeb(body) as ReadableStream, {
-      headers: {
-        "Content-Type": "application/zip",
-        "Content-Disposition": `attachment; filename="${plan.name}"`,
-        "Cache-Control": "no-store",
-        "X-Bundle-Revision": String(plan.revision),
-        // The files' bytes: the zip is about this size (text is deflated, each entry adds a header).
-        "X-Bundle-Content-Bytes": String(plan.totalBytes),
-      },
+    return zipResponse(plan, storage(), plan.name, {
+      "X-Bundle-Revision": String(plan.revision),
+      // The files' bytes: the zip is about this size (text is deflated, each entry adds a header).
+      "X-Bundle-Content-Bytes": String(plan.totalBytes),
     });
   });
 }

@@ -1,4 +1,5 @@
-import { Form, NavLink, Outlet } from "react-router";
+import { NavLink, Outlet } from "react-router";
+import { SignOutButton } from "~/components/SignOutButton";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { can } from "~/lib/auth/permissions";
 import type { ClientViewer } from "~/lib/auth/viewer";
@@ -53,11 +54,7 @@ export default function AppLayout({ loaderData }: Route.ComponentProps) {
           <span className="ml-auto text-sm text-iron-300" data-testid="who">
             {viewer.name} · <span className="text-brass-300">{viewer.role}</span>
           </span>
-          <Form method="post" action="/logout">
-            <button className="btn" type="submit">
-              Sign out
-            </button>
-          </Form>
+          <SignOutButton />
         </nav>
       </header>
       <main className="mx-auto max-w-7xl px-4 py-6">

@@ -2,12 +2,12 @@
 // item by item (each tick saves at once), choose the card's template, names and size as on the
 // Bundle tab, release, and see every release with its bundle's SHA-256 and a download.
 import { data, Form, Link } from "react-router";
+import { CardChoiceFields } from "~/components/bundle/BundleQueryForm";
 import { BenchChecklist } from "~/components/release/BenchChecklist";
 import { SafetyCautions } from "~/components/SafetyCautions";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { loadBuildFor } from "~/lib/auth/build-access.server";
 import { formatBytes } from "~/lib/bundle/card-check";
-import { CARD_SIZES } from "~/lib/bundle/query";
 import { openReleasePage, releasePageAction } from "~/lib/release/page.server";
 import { MAX_RELEASE_NOTE_CHARS } from "~/lib/release/requests";
 import { readFormLimited } from "~/lib/web/body.server";
@@ -34,7 +34,6 @@ const when = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 export default function ReleasePage({ loaderData, actionData }: Route.ComponentProps) {
   const p = loaderData;
   const q = p.bundle?.query;
-  const sizes = q && !(CARD_SIZES as readonly number[]).includes(q.cardGb) ? [...CARD_SIZES, q.cardGb].sort((a, b) => a - b) : CARD_SIZES;
   const choices = p.revision !== null && !p.approved.includes(p.revision) ? [p.revision, ...p.approved] : p.approved;
   const refused = actionData && !actionData.ok ? actionData.error : null;
   const released = actionData && actionData.ok && actionData.intent === "release" ? actionData.release : null;
@@ -61,40 +60,7 @@ export default function ReleasePage({ loaderData, actionData }: Route.ComponentP
                 ))}
               </select>
             </div>
-            <div>
-              <label className="label" htmlFor="release-template">
-                Template
-              </label>
-              <select id="release-template" name="template" className="field w-auto" defaultValue={q?.template ?? ""}>
-                <option value="">The revision's own</option>
-                {p.bundle?.templates.map((t) => (
-                  <option key={t.ref} value={t.ref}>
-                    {t.label}
-                  </option>
-                ))}
-              </select>
-            </div>
-            <div>
-              <label className="label" htmlFor="release-names">
-                Names on the card
-              </label>
-              <select id="release-names" name="names" className="field w-auto" defaultValue={q?.mode ?? "long"}>
-                <option value="long">Long names (FAT32)</option>
-                <option value="8.3">8.3 short names</option>
-              </select>
-            </div>
-            <div>
-              <label className="label" htmlFor="release-card">
-                Card size
-              </label>
-              <select id="release-card" name="card" className="field w-auto" defaultValue={String(q?.cardGb ?? 32)}>
-                {sizes.map((gb) => (
-                  <option key={gb} value={gb}>
-                    {gb} GB
-                  </option>
-                ))}
-              </select>
-            </div>
+            <CardChoiceFields idPrefix="release" templates={p.bundle?.templates ?? []} template={q?.template ?? null} ownLabel="The revision's own" mode={q?.mode ?? "long"} cardGb={q?.cardGb ?? 32} />
             <button type="submit" className="btn">
               Show
             </button>

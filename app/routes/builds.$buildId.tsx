@@ -14,6 +14,8 @@ export const meta: Route.MetaFunction = ({ data, error }) => [{ title: error ? e
 export async function loader({ request, params }: Route.LoaderArgs) {
   const v = await requireViewer(request, "view:builds");
   const b = await loadBuildFor(v, params.buildId);
+  // Client requests are the workshop's tab; clients read theirs on their handoff page.
+  const canViewRequests = can(v.role, "view:requests") && v.role !== "client";
   return {
     build: { id: b.id, name: b.name, status: b.status, client_name: b.client_name, archived: b.archived_at !== null },
     canEdit: can(v.role, "edit:build"),
@@ -23,9 +25,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     canMakeBundle: can(v.role, "make:bundle"),
     // Presets a version behind the library (a badge on every section of the build).
     outdated: can(v.role, "view:library") ? (await outdatedPresetsFor(v, b)).length : 0,
-    // Client requests waiting for an answer (the workshop's tab; clients use their handoff page).
-    canViewRequests: can(v.role, "view:requests") && v.role !== "client",
-    openRequests: can(v.role, "view:requests") && v.role !== "client" ? ((await openRequestCountsFor(v, b.id)).get(b.id) ?? 0) : 0,
+    canViewRequests,
+    openRequests: canViewRequests ? ((await openRequestCountsFor(v, b.id)).get(b.id) ?? 0) : 0,
   };
 }
 

@@ -1,6 +1,7 @@
 // The client's frame (decision 023): their builds and their sign-out, none of the workshop's
 // tools. Workshop members see the same pages as a read-only preview of what the client sees.
-import { Form, Link, NavLink, Outlet } from "react-router";
+import { Link, NavLink, Outlet } from "react-router";
+import { SignOutButton } from "~/components/SignOutButton";
 import { ErrorPage } from "~/components/ErrorPage";
 import { requireViewer } from "~/lib/auth/auth.server";
 import { can } from "~/lib/auth/permissions";
@@ -32,11 +33,7 @@ export default function HandoffLayout({ loaderData }: Route.ComponentProps) {
           <span className="ml-auto text-sm text-iron-300" data-testid="who">
             {name}
           </span>
-          <Form method="post" action="/logout">
-            <button className="btn" type="submit">
-              Sign out
-            </button>
-          </Form>
+          <SignOutButton />
         </nav>
       </header>
       <main className="mx-auto max-w-5xl px-4 py-6">

@@ -1,12 +1,12 @@
 // The bundle's choices as a GET form (so the address names the bundle): revision, template,
-// card names and the card's size. Shared by the Bundle page and the Check-a-card page.
+// card names and the card's size. Shared by the Bundle page and the Check-a-card page; the
+// template, names and size fields (`CardChoiceFields`) also by the Release tab.
 import { Form } from "react-router";
 import { CARD_SIZES } from "~/lib/bundle/query";
 import type { BundlePage } from "~/lib/bundle/page.server";
 
 export function BundleQueryForm({ page, submitLabel }: { page: Pick<BundlePage, "query" | "revisions" | "templates" | "pinnedLabel">; submitLabel: string }) {
   const q = page.query;
-  const sizes = (CARD_SIZES as readonly number[]).includes(q.cardGb) ? CARD_SIZES : [...CARD_SIZES, q.cardGb].sort((a, b) => a - b);
   return (
     <Form method="get" className="card flex flex-wrap items-end gap-3">
       {page.revisions.length ? (
@@ -24,13 +24,26 @@ export function BundleQueryForm({ page, submitLabel }: { page: Pick<BundlePage, 
           </select>
         </div>
       ) : null}
+      <CardChoiceFields idPrefix="bundle" templates={page.templates} template={q.template} ownLabel={q.revision === null ? `The build's own (${page.pinnedLabel})` : "The revision's own"} mode={q.mode} cardGb={q.cardGb} />
+      <button type="submit" className="btn">
+        {submitLabel}
+      </button>
+    </Form>
+  );
+}
+
+/** The template, names and card-size fields of a bundle's choices (ids start with `idPrefix`). */
+export function CardChoiceFields({ idPrefix, templates, template, ownLabel, mode, cardGb }: { idPrefix: string; templates: { ref: string; label: string }[]; template: string | null; ownLabel: string; mode: string; cardGb: number }) {
+  const sizes = (CARD_SIZES as readonly number[]).includes(cardGb) ? CARD_SIZES : [...CARD_SIZES, cardGb].sort((a, b) => a - b);
+  return (
+    <>
       <div>
-        <label className="label" htmlFor="bundle-template">
+        <label className="label" htmlFor={`${idPrefix}-template`}>
           Template
         </label>
-        <select id="bundle-template" name="template" className="field w-auto" defaultValue={q.template ?? ""}>
-          <option value="">{q.revision === null ? `The build's own (${page.pinnedLabel})` : "The revision's own"}</option>
-          {page.templates.map((t) => (
+        <select id={`${idPrefix}-template`} name="template" className="field w-auto" defaultValue={template ?? ""}>
+          <option value="">{ownLabel}</option>
+          {templates.map((t) => (
             <option key={t.ref} value={t.ref}>
               {t.label}
             </option>
@@ -38,19 +51,19 @@ export function BundleQueryForm({ page, submitLabel }: { page: Pick<BundlePage, 
         </select>
       </div>
       <div>
-        <label className="label" htmlFor="bundle-names">
+        <label className="label" htmlFor={`${idPrefix}-names`}>
           Names on the card
         </label>
-        <select id="bundle-names" name="names" className="field w-auto" defaultValue={q.mode}>
+        <select id={`${idPrefix}-names`} name="names" className="field w-auto" defaultValue={mode}>
           <option value="long">Long names (FAT32)</option>
           <option value="8.3">8.3 short names</option>
         </select>
       </div>
       <div>
-        <label className="label" htmlFor="bundle-card">
+        <label className="label" htmlFor={`${idPrefix}-card`}>
           Card size
         </label>
-        <select id="bundle-card" name="card" className="field w-auto" defaultValue={String(q.cardGb)}>
+        <select id={`${idPrefix}-card`} name="card" className="field w-auto" defaultValue={String(cardGb)}>
           {sizes.map((gb) => (
             <option key={gb} value={gb}>
               {gb} GB
@@ -58,9 +71,6 @@ export function BundleQueryForm({ page, submitLabel }: { page: Pick<BundlePage, 
           ))}
         </select>
       </div>
-      <button type="submit" className="btn">
-        {submitLabel}
-      </button>
-    </Form>
+    </>
   );
 }

@@ -2,7 +2,7 @@
 // stored, text deflated, and no extended timestamps, so the same plan gives the same bytes. Font
 // files are opened one at a time as yazl reaches them, so memory stays bounded whatever the
 // fonts' size (decision 014).
-import type { Readable } from "node:stream";
+import { Readable } from "node:stream";
 import { ZipFile } from "yazl";
 import type { FileStorage } from "../storage/types";
 import type { BundlePlan } from "./plan";
@@ -25,4 +25,11 @@ export function zipBundle(plan: BundlePlan, storage: FileStorage): Readable {
   }
   zip.end();
   return zip.outputStream as Readable;
+}
+
+/** The zip as a download answer: streamed, never cached, under `fileName`, with the route's own headers. */
+export function zipResponse(plan: BundlePlan, storage: FileStorage, fileName: string, headers: Record<string, string>): Response {
+  return new Response(Readable.toWeb(zipBundle(plan, storage)) as ReadableStream, {
+    headers: { "Content-Type": "application/zip", "Content-Disposition": `attachment; filename="${fileName}"`, "Cache-Control": "no-store", ...headers },
+  });
 }

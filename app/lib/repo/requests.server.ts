@@ -2,6 +2,7 @@
 // and answered. An answer is a compare-and-set on `version`, so a stale answer changes nothing.
 import type { Kysely, Transaction } from "kysely";
 import type { ClientRequestKind, ClientRequestStatus, Database } from "../db/types";
+import { isUuid } from "./builds.server";
 
 type Db = Kysely<Database> | Transaction<Database>;
 
@@ -19,8 +20,6 @@ export type ClientRequestRow = {
   updatedAt: Date;
   version: number;
 };
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 function base(db: Db) {
   return db
@@ -48,7 +47,7 @@ export async function listClientRequests(db: Db, workshopId: string, buildId: st
 }
 
 export async function getClientRequest(db: Db, workshopId: string, buildId: string, id: string): Promise<ClientRequestRow | null> {
-  if (!UUID.test(id)) return null;
+  if (!isUuid(id)) return null;
   return (await base(db).where("r.workshop_id", "=", workshopId).where("r.build_id", "=", buildId).where("r.id", "=", id).executeTakeFirst()) ?? null;
 }
 

@@ -4,7 +4,6 @@
 // the mail it sends share one transaction (the outbox, app/lib/mail/).
 import type { Kysely, Transaction } from "kysely";
 import type { Viewer } from "../auth/auth.server";
-import { can } from "../auth/permissions";
 import { db as appDb } from "../db/db.server";
 import type { Database } from "../db/types";
 import { appLink, sendMail } from "../mail/mailer.server";
@@ -81,5 +80,3 @@ export const askRequestFor = (v: Viewer, build: Build, body: AskBody) => askRequ
 export const answerRequestFor = (v: Viewer, build: Build, id: string, body: AnswerBody) => answerRequest(appDeps(), askerOf(v), build, id, body);
 export const listRequestsFor = (v: Viewer, buildId: string) => listRequests({ db: appDb() }, v.workshop.id, buildId);
 export const openRequestCountsFor = (v: Viewer, buildId?: string) => repo.openRequestCounts(appDb(), v.workshop.id, buildId);
-/** Whether the viewer answers requests (owners and builders) or only reads and asks. */
-export const mayAnswer = (v: Viewer) => can(v.role, "answer:request");
